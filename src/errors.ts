@@ -1,0 +1,54 @@
+/**
+ * The one error family of iqaudit. Every expected failure (bad input, bad usage) is an
+ * IqauditError with a literal `code`; `cli.ts` alone turns it into exit code 2 and one line on
+ * stderr, `iqaudit: <subject>: <problem>`. Any other exception is a bug and keeps its stack.
+ */
+export type IqauditErrorCode =
+  | "capture_format" // a capture file that cannot be read as claimed
+  | "usage" // a bad option or option value
+  | "parameter" // a parameter outside its bound (library use)
+  | "licence_file"; // a licence file that cannot be used
+
+export class IqauditError extends Error {
+  readonly code: IqauditErrorCode;
+  /** What the message is about: a file path or an option name. */
+  readonly subject: string;
+  constructor(code: IqauditErrorCode, subject: string, problem: string) {
+    super(`${subject}: ${problem}`);
+    this.name = "IqauditError";
+    this.code = code;
+    this.subject = subject;
+  }
+}
+
+/** A capture (or its metadata) that cannot be read: names the file and, where known, the byte offset. */
+export class CaptureFormatError extends IqauditError {
+  readonly byteOffset: number | null;
+  constructor(file: string, problem: string, byteOffset: number | null = null) {
+    super("capture_format", file, problem);
+    this.name = "CaptureFormatError";
+    this.byteOffset = byteOffset;
+  }
+}
+
+/** A command-line option with a value that cannot be used. `option` is spelled as typed, e.g. "--rate". */
+export class UsageError extends IqauditError {
+  readonly option: string;
+  constructor(option: string, problem: string) {
+    super("usage", option, problem);
+    this.name = "UsageError";
+    this.option = option;
+  }
+}
+
+/** A library parameter outside its bound, e.g. "segmentLength 4096 exceeds the 1200 samples in the selection". */
+export class ParameterError extends IqauditError {
+  constructor(parameter: string, problem: string) {
+    super("parameter", parameter, problem);
+    this.name = "ParameterError";
+  }
+}
+
+export function isIqauditError(e: unknown): e is IqauditError {
+  return e instanceof IqauditError;
+}
