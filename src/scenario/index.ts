@@ -1,0 +1,1 @@
+export { SeededRandom, complexNoise } from "./random.js";
