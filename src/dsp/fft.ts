@@ -1,0 +1,82 @@
+/**
+ * The one FFT of iqaudit: a thin wrapper over fft.js (radix-4, complex, double precision).
+ * No other module imports fft.js.
+ *
+ * Conventions (set here, once):
+ * - Buffers are plain `number[]` of length 2N, interleaved re, im, made by `createBuffer()`.
+ *   fft.js runs fastest on plain arrays, and V8 slows every call once one process hands it
+ *   several array types, so callers copy their Float32Array samples into such a buffer.
+ * - `forward` is the unscaled DFT X[k] = Σ_n x[n]·exp(−j2πkn/N) (the sign of the engineering
+ *   convention, e.g. Oppenheim & Schafer, Discrete-Time Signal Processing, eq. 8.11).
+ *   `inverse` is scaled by 1/N, so inverse(forward(x)) = x.
+ * - Bin order is natural: bin 0 is DC, bins 1..N/2−1 are positive frequencies k·fs/N, bin N/2 is
+ *   the Nyquist bin (reported as −fs/2), bins N/2+1..N−1 are the negative frequencies
+ *   (k − N)·fs/N. `toCentredOrder` turns that into centred order, index i ↔ (i − N/2)·fs/N,
+ *   which is the order of every PSD and spectrogram iqaudit hands on.
+ * - N is a power of two, at least 2 (an fft.js requirement).
+ */
+import FFT from "fft.js";
+
+/** A planned transform of one size: twiddles and bit reversal computed once, then reused. */
+export interface FftPlan {
+  /** Transform length N (complex points). */
+  readonly size: number;
+  /** A zeroed interleaved buffer of 2N numbers, the only kind `forward`/`inverse` accept. */
+  createBuffer(): number[];
+  /** out ← DFT(input), unscaled. `out` and `input` must be different buffers. */
+  forward(out: number[], input: number[]): void;
+  /** out ← IDFT(input), scaled by 1/N. `out` and `input` must be different buffers. */
+  inverse(out: number[], input: number[]): void;
+}
+
+const plans = new Map<number, FftPlan>();
+
+/**
+ * The plan for size N, created on first use and cached by size for the life of the process.
+ * Throws RangeError unless N is a power of two ≥ 2.
+ */
+export function fftPlan(size: number): FftPlan {
+  const cached = plans.get(size);
+  if (cached !== undefined) return cached;
+  if (!Number.isInteger(size) || size < 2 || (size & (size - 1)) !== 0) {
+    throw new RangeError(`fftLength ${size} is not a power of two of at least 2`);
+  }
+  const engine = new FFT(size);
+  const plan: FftPlan = {
+    size,
+    createBuffer: () => engine.createComplexArray(),
+    forward: (out, input) => engine.transform(out, input),
+    inverse: (out, input) => engine.inverseTransform(out, input),
+  };
+  plans.set(size, plan);
+  return plan;
+}
+
+/** True when `n` is a size `fftPlan` accepts (a power of two, at least 2). */
+export function isFftSize(n: number): boolean {
+  return Number.isInteger(n) && n >= 2 && (n & (n - 1)) === 0;
+}
+
+/**
+ * The natural-order bin that sits at centred index `centredIndex` of an N-point spectrum:
+ * (centredIndex + N/2) mod N. Centred index i is the frequency (i − N/2)·fs/N.
+ */
+export function naturalBinIndex(centredIndex: number, size: number): number {
+  const half = size >>> 1;
+  return centredIndex < half ? centredIndex + half : centredIndex - half;
+}
+
+/**
+ * A copy of a natural-order spectrum of N values in centred order, each multiplied by `scale`:
+ * out[i] = scale · natural[(i + N/2) mod N]. N must be even.
+ */
+export function toCentredOrder(natural: Float64Array, scale = 1): Float64Array {
+  const n = natural.length;
+  const half = n >>> 1;
+  const out = new Float64Array(n);
+  for (let i = 0; i < half; i++) {
+    out[i] = scale * (natural[i + half] as number);
+    out[i + half] = scale * (natural[i] as number);
+  }
+  return out;
+}
