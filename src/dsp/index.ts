@@ -1,0 +1,17 @@
+export { fftPlan, isFftSize, naturalBinIndex, toCentredOrder, type FftPlan } from "./fft.js";
+export {
+  WINDOW_NAMES, isWindowName, windowCoefficients, coherentGain, enbwBins, windowPowerSum, type WindowName,
+} from "./windows.js";
+export { DB_FLOOR, DB_CEILING, powerToDb, dbToPower } from "./db.js";
+export { frameGrid, wholeFrameCount, framesInBlock, checkBlock, type FrameGrid, type FrameRange } from "./frameGrid.js";
+export { WelchAccumulator, binFrequencyHz, type WelchPsd, type WelchOptions, type WelchState } from "./welch.js";
+export {
+  SpectrogramAccumulator, type Spectrogram, type SpectrogramOptions, type SpectrogramState,
+} from "./spectrogram.js";
+export {
+  HealthAccumulator, healthFigures, imageRejectionRatioDb, type HealthFigures, type HealthState,
+} from "./health.js";
+export {
+  noiseFloor, equivalentDegreesOfFreedom, chiSquareQuantileOverNu, standardNormalQuantile,
+  NOISE_FLOOR_DEFAULTS, type NoiseFloor, type NoiseFloorOptions,
+} from "./noiseFloor.js";

@@ -1,0 +1,183 @@
+/**
+ * A spectrogram with a fixed number of rows, streamed over blocks and mergeable across workers.
+ *
+ * The span of `totalSamples` samples is cut into F = floor(totalSamples / N) frames of N =
+ * fftLength samples, no overlap (frame k starts at k·N; a trailing partial frame is dropped).
+ * The row count R = min(requested rowCount, F) is fixed up front, so memory is R × N whatever the
+ * capture length. Frame k goes to row r = floor(k·R / F); row r thus holds frames
+ * ceil(r·F/R) .. ceil((r+1)·F/R) − 1, i.e. floor(F/R) or ceil(F/R) consecutive frames.
+ * Each frame's periodogram is density-scaled as in welch.ts, |X[k]|²/(fs·Σw²) in FS²/Hz
+ * (Heinzel et al. 2002, §9); each row keeps the mean and the maximum over its frames.
+ * Blocks follow the contract of frameGrid.ts; frames past the span are ignored.
+ */
+import { fftPlan, naturalBinIndex, type FftPlan } from "./fft.js";
+import { addPower, loadWindowedFrame } from "./framePower.js";
+import { checkBlock, frameGrid, framesInBlock, type FrameGrid } from "./frameGrid.js";
+import { windowCoefficients, windowPowerSum, type WindowName } from "./windows.js";
+
+/** Spectrogram rows. Row-major rowCount × fftLength, row 0 earliest, centred bin order, FS²/Hz. */
+export interface Spectrogram {
+  readonly rowCount: number;
+  readonly fftLength: number;
+  readonly sampleRateHz: number;
+  /** fs/N, Hz. */
+  readonly binWidthHz: number;
+  readonly window: WindowName;
+  /** Mean over the frames of each row. */
+  readonly meanPerHz: Float32Array;
+  /** Maximum over the frames of each row. */
+  readonly maxPerHz: Float32Array;
+  /** Frames that went into each row (0 for a row no block reached). */
+  readonly framesPerRow: Uint32Array;
+  /** Start of each row's first frame, s from the first sample of the span. */
+  readonly rowStartS: Float64Array;
+  /** End of each row's last frame, s. */
+  readonly rowStopS: Float64Array;
+}
+
+/** Options of a SpectrogramAccumulator. Default window "hann". */
+export interface SpectrogramOptions {
+  /** Frame and transform length N, a power of two. */
+  readonly fftLength: number;
+  /** Rows requested (positive integer); fewer when the span holds fewer whole frames. */
+  readonly rowCount: number;
+  /** Samples in the analysed span. */
+  readonly totalSamples: number;
+  /** Sample rate fs, Hz (> 0). */
+  readonly sampleRateHz: number;
+  readonly window?: WindowName;
+}
+
+/** The accumulator's state: plain numbers and typed arrays, structured-cloneable. */
+export interface SpectrogramState {
+  readonly fftLength: number;
+  readonly rowCount: number;
+  readonly frameCount: number;
+  readonly sampleRateHz: number;
+  readonly window: WindowName;
+  /** Σ |X[k]|² per row, natural bin order, unscaled; rowCount × fftLength. */
+  readonly powerSum: Float64Array;
+  /** max |X[k]|² per row, natural bin order, unscaled. */
+  readonly powerMax: Float64Array;
+  readonly framesPerRow: Uint32Array;
+}
+
+/**
+ * Streams blocks into a fixed-row spectrogram: `push` blocks (frameGrid.ts contract),
+ * `snapshot`/`merge` to combine workers, `finish` for the rows. Memory: 2 × R × N doubles.
+ */
+export class SpectrogramAccumulator {
+  /** Effective row count R = min(requested, whole frames). */
+  readonly rowCount: number;
+  /** Whole frames F in the span. */
+  readonly frameCount: number;
+  private readonly fftLength: number;
+  private readonly sampleRateHz: number;
+  private readonly window: WindowName;
+  private readonly grid: FrameGrid;
+  private readonly plan: FftPlan;
+  private readonly windowValues: Float64Array;
+  private readonly input: number[];
+  private readonly output: number[];
+  private readonly powerSum: Float64Array;
+  private readonly powerMax: Float64Array;
+  private readonly framesPerRow: Uint32Array;
+
+  constructor(options: SpectrogramOptions) {
+    const { fftLength, rowCount, totalSamples, sampleRateHz } = options;
+    this.plan = fftPlan(fftLength);
+    if (!Number.isInteger(rowCount) || rowCount < 1) {
+      throw new RangeError(`rowCount ${rowCount} is not a positive integer`);
+    }
+    if (!Number.isInteger(totalSamples) || totalSamples < 0) {
+      throw new RangeError(`totalSamples ${totalSamples} is not a non-negative integer`);
+    }
+    if (!(sampleRateHz > 0) || !Number.isFinite(sampleRateHz)) {
+      throw new RangeError(`sampleRateHz ${sampleRateHz} is not a positive finite rate`);
+    }
+    this.fftLength = fftLength;
+    this.sampleRateHz = sampleRateHz;
+    this.window = options.window ?? "hann";
+    this.grid = frameGrid(fftLength, fftLength);
+    this.frameCount = Math.floor(totalSamples / fftLength);
+    this.rowCount = Math.min(rowCount, this.frameCount);
+    this.windowValues = windowCoefficients(this.window, fftLength);
+    this.input = this.plan.createBuffer();
+    this.output = this.plan.createBuffer();
+    this.powerSum = new Float64Array(this.rowCount * fftLength);
+    this.powerMax = new Float64Array(this.rowCount * fftLength);
+    this.framesPerRow = new Uint32Array(this.rowCount);
+  }
+
+  /** Adds every frame of the block that it owns (frameGrid.ts) to its row. */
+  push(iq: Float32Array, dataStart: number, ownedStart: number = dataStart): void {
+    const n = checkBlock(iq, dataStart, ownedStart);
+    const { firstFrame, frameCount } = framesInBlock(this.grid, dataStart, n, ownedStart);
+    const last = Math.min(firstFrame + frameCount, this.frameCount);
+    const l = this.fftLength;
+    const rows = this.rowCount;
+    const frames = this.frameCount;
+    for (let k = firstFrame; k < last; k++) {
+      const row = Math.floor((k * rows) / frames);
+      loadWindowedFrame(iq, k * l - dataStart, this.windowValues, this.input);
+      this.plan.forward(this.output, this.input);
+      addPower(this.output, this.powerSum, this.powerMax, row * l);
+      this.framesPerRow[row] = (this.framesPerRow[row] as number) + 1;
+    }
+  }
+
+  /** A copy of the state, for postMessage to the merging side. */
+  snapshot(): SpectrogramState {
+    return {
+      fftLength: this.fftLength, rowCount: this.rowCount, frameCount: this.frameCount,
+      sampleRateHz: this.sampleRateHz, window: this.window,
+      powerSum: this.powerSum.slice(), powerMax: this.powerMax.slice(), framesPerRow: this.framesPerRow.slice(),
+    };
+  }
+
+  /** Adds another accumulator's state. Throws RangeError if its settings differ from these. */
+  merge(state: SpectrogramState): void {
+    if (state.fftLength !== this.fftLength || state.rowCount !== this.rowCount || state.frameCount !== this.frameCount
+      || state.sampleRateHz !== this.sampleRateHz || state.window !== this.window) {
+      throw new RangeError(
+        `spectrogram state (${state.fftLength} × ${state.rowCount} rows of ${state.frameCount} frames, ${state.window}) `
+        + `does not match (${this.fftLength} × ${this.rowCount} rows of ${this.frameCount} frames, ${this.window})`,
+      );
+    }
+    for (let i = 0; i < this.powerSum.length; i++) {
+      this.powerSum[i] = (this.powerSum[i] as number) + (state.powerSum[i] as number);
+      if ((state.powerMax[i] as number) > (this.powerMax[i] as number)) this.powerMax[i] = state.powerMax[i] as number;
+    }
+    for (let r = 0; r < this.rowCount; r++) {
+      this.framesPerRow[r] = (this.framesPerRow[r] as number) + (state.framesPerRow[r] as number);
+    }
+  }
+
+  /** The rows of everything pushed and merged so far (the accumulator stays usable). */
+  finish(): Spectrogram {
+    const l = this.fftLength;
+    const rows = this.rowCount;
+    const scale = 1 / (this.sampleRateHz * windowPowerSum(this.windowValues));
+    const meanPerHz = new Float32Array(rows * l);
+    const maxPerHz = new Float32Array(rows * l);
+    const rowStartS = new Float64Array(rows);
+    const rowStopS = new Float64Array(rows);
+    const frameS = l / this.sampleRateHz;
+    for (let r = 0; r < rows; r++) {
+      const count = this.framesPerRow[r] as number;
+      const meanScale = count > 0 ? scale / count : 0;
+      const base = r * l;
+      for (let i = 0; i < l; i++) {
+        const b = base + naturalBinIndex(i, l);
+        meanPerHz[base + i] = meanScale * (this.powerSum[b] as number);
+        maxPerHz[base + i] = scale * (this.powerMax[b] as number);
+      }
+      rowStartS[r] = Math.ceil((r * this.frameCount) / rows) * frameS;
+      rowStopS[r] = Math.ceil(((r + 1) * this.frameCount) / rows) * frameS;
+    }
+    return {
+      rowCount: rows, fftLength: l, sampleRateHz: this.sampleRateHz, binWidthHz: this.sampleRateHz / l,
+      window: this.window, meanPerHz, maxPerHz, framesPerRow: this.framesPerRow.slice(), rowStartS, rowStopS,
+    };
+  }
+}
