@@ -1,0 +1,164 @@
+import { FONT_METRICS, textHeightPx, textWidthPx } from "./font.js";
+import type { Rect, Rgb, RgbaCanvas } from "./raster.js";
+import { formatTickLabel, nextNiceStep, niceNumber, siScaleForHz, siScaleForSeconds, ticksWithStep, type SiScale } from "./ticks.js";
+
+// The most ticks an axis gets, however long it is.
+const MAX_TICKS = 12;
+
+/** What an axis measures: hertz and seconds get SI prefixes chosen to fit; `linear` keeps its unit as given. */
+export type AxisQuantity = { readonly kind: "hertz" } | { readonly kind: "seconds" } | { readonly kind: "linear"; readonly unit: string };
+
+/** One tick: its value in the axis base unit (Hz, s, or the linear unit) and its label text. */
+export interface AxisTick {
+  readonly value: number;
+  readonly label: string;
+}
+
+/** A finished axis: value range in base units, title with its unit in brackets, ticks. */
+export interface Axis {
+  readonly min: number;
+  readonly max: number;
+  readonly title: string;
+  readonly ticks: readonly AxisTick[];
+}
+
+/** Inputs of {@link buildAxis}. */
+export interface AxisRequest {
+  /** Range in base units (Hz, s, ...), max > min. */
+  readonly min: number;
+  readonly max: number;
+  readonly quantity: AxisQuantity;
+  /** Name without the unit, e.g. "Time"; the title becomes "Time (ms)". */
+  readonly name: string;
+  /** Length of the axis on the page, in pixels. */
+  readonly lengthPx: number;
+  readonly orientation: "horizontal" | "vertical";
+  /** Integer font scale of the tick labels. */
+  readonly textScale: number;
+}
+
+function scaleFor(quantity: AxisQuantity, min: number, max: number): SiScale {
+  const largest = Math.max(Math.abs(min), Math.abs(max));
+  if (quantity.kind === "hertz") return siScaleForHz(largest);
+  if (quantity.kind === "seconds") return siScaleForSeconds(largest);
+  return { symbol: quantity.unit, factor: 1 };
+}
+
+/**
+ * An axis with as many nice ticks (1, 2 or 5 × 10^k apart, as in Heckbert 1990) as fit, at
+ * most 12, without their labels crowding: horizontal labels keep at least two character widths apart, vertical ones two
+ * and a half line heights. Labels carry enough decimals to tell neighbours apart.
+ */
+export function buildAxis(request: AxisRequest): Axis {
+  const { min, max, quantity, lengthPx, textScale } = request;
+  const scale = scaleFor(quantity, min, max);
+  const title = scale.symbol === "" ? request.name : `${request.name} (${scale.symbol})`;
+  const horizontal = request.orientation === "horizontal";
+  // Walk up the 1-2-5 steps from one giving about 12 ticks; keep the first whose labels fit.
+  let step = niceNumber((max - min) / MAX_TICKS, false);
+  let ticks: AxisTick[] = [];
+  for (let attempt = 0; attempt < 40; attempt++, step = nextNiceStep(step)) {
+    ticks = ticksWithStep(min, max, step).values.map((value) => ({ value, label: formatTickLabel(value, step, scale) }));
+    const stepPx = (step / (max - min)) * lengthPx;
+    const neededPx = horizontal
+      ? Math.max(...ticks.map((t) => textWidthPx(t.label, textScale))) + 2 * FONT_METRICS.advancePx * textScale
+      : 2.5 * textHeightPx(textScale);
+    if (stepPx >= neededPx || ticks.length <= 2) break;
+  }
+  return { min, max, title, ticks };
+}
+
+/**
+ * Page position of `value` along an axis: start + (value − min)/(max − min)·length, or measured
+ * from the far end when `reversed` (a y axis whose minimum is at the bottom). Continuous
+ * coordinates: pixel column c covers [c, c + 1).
+ */
+export function positionPx(value: number, axis: Pick<Axis, "min" | "max">, startPx: number, lengthPx: number, reversed: boolean): number {
+  const f = (value - axis.min) / (axis.max - axis.min);
+  return reversed ? startPx + (1 - f) * lengthPx : startPx + f * lengthPx;
+}
+
+/** Colours and sizes for {@link drawAxes}. */
+export interface AxesStyle {
+  readonly textScale: number;
+  readonly frameColour: Rgb;
+  readonly textColour: Rgb;
+  /** Grid lines across the plot at each tick, or null for none. */
+  readonly gridColour: Rgb | null;
+  /** True when the y minimum is at the top (time running down), false when at the bottom. */
+  readonly yMinAtTop: boolean;
+}
+
+/** Length of a tick mark outside the frame, in pixels, at font scale `textScale`. */
+export function tickLengthPx(textScale: number): number {
+  return 4 * textScale;
+}
+
+/** Gap between a tick mark, its label and the axis title, in pixels. */
+export function axisGapPx(textScale: number): number {
+  return 3 * textScale;
+}
+
+/** Space below the plot the x axis needs: tick, label line, title line and gaps, in pixels. */
+export function xAxisDepthPx(textScale: number): number {
+  return tickLengthPx(textScale) + 3 * axisGapPx(textScale) + 2 * textHeightPx(textScale);
+}
+
+/** Space left of the plot the y axis needs: tick, widest label, rotated title and gaps, in pixels. */
+export function yAxisDepthPx(axis: Axis, textScale: number): number {
+  const widest = Math.max(0, ...axis.ticks.map((t) => textWidthPx(t.label, textScale)));
+  return tickLengthPx(textScale) + 3 * axisGapPx(textScale) + widest + textHeightPx(textScale);
+}
+
+/** Pixel column or row of a tick drawn at continuous position `p`, kept on the plot's edge pixels. */
+function tickPixel(p: number, startPx: number, lengthPx: number): number {
+  return Math.min(startPx + lengthPx - 1, Math.max(startPx, Math.floor(p)));
+}
+
+/**
+ * Draws the frame just outside `plot`, the ticks and labels of `x` below it and of `y` to its
+ * left, and both titles (the y title rotated to read bottom to top).
+ */
+export function drawAxes(canvas: RgbaCanvas, plot: Rect, x: Axis, y: Axis, style: AxesStyle): void {
+  const s = style.textScale;
+  const tick = tickLengthPx(s);
+  const gap = axisGapPx(s);
+  const lineH = textHeightPx(s);
+  canvas.setClip(null);
+  if (style.gridColour !== null) {
+    const grid = style.gridColour;
+    for (const t of x.ticks) {
+      const px = tickPixel(positionPx(t.value, x, plot.x, plot.width, false), plot.x, plot.width);
+      canvas.line(px, plot.y, px, plot.y + plot.height - 1, grid);
+    }
+    for (const t of y.ticks) {
+      const py = tickPixel(positionPx(t.value, y, plot.y, plot.height, !style.yMinAtTop), plot.y, plot.height);
+      canvas.line(plot.x, py, plot.x + plot.width - 1, py, grid);
+    }
+  }
+  canvas.strokeRect({ x: plot.x - 1, y: plot.y - 1, width: plot.width + 2, height: plot.height + 2 }, style.frameColour);
+
+  const bottom = plot.y + plot.height;
+  for (const t of x.ticks) {
+    const px = tickPixel(positionPx(t.value, x, plot.x, plot.width, false), plot.x, plot.width);
+    canvas.line(px, bottom, px, bottom + tick - 1, style.frameColour, { widthPx: s });
+    const w = textWidthPx(t.label, s);
+    canvas.text(t.label, px - Math.floor(w / 2), bottom + tick + gap, style.textColour, { scale: s });
+  }
+  const xTitleWidth = textWidthPx(x.title, s);
+  canvas.text(x.title, plot.x + Math.floor((plot.width - xTitleWidth) / 2), bottom + tick + 2 * gap + lineH, style.textColour, { scale: s });
+
+  let widest = 0;
+  for (const t of y.ticks) {
+    const py = tickPixel(positionPx(t.value, y, plot.y, plot.height, !style.yMinAtTop), plot.y, plot.height);
+    canvas.line(plot.x - tick, py, plot.x - 2, py, style.frameColour, { widthPx: s });
+    const w = textWidthPx(t.label, s);
+    widest = Math.max(widest, w);
+    // Centre the label's cap height (7 of its 9 rows) on the tick.
+    const capH = FONT_METRICS.ascentPx * s;
+    canvas.text(t.label, plot.x - tick - gap - w, py - Math.floor(capH / 2), style.textColour, { scale: s });
+  }
+  const yTitleLength = textWidthPx(y.title, s);
+  const yTitleX = plot.x - tick - 2 * gap - widest - lineH;
+  canvas.text(y.title, yTitleX, plot.y + Math.floor((plot.height - yTitleLength) / 2), style.textColour, { scale: s, rotationDeg: 90 });
+}

@@ -1,0 +1,57 @@
+// The public surface of src/render: re-exports only.
+export { FONT_METRICS, glyphFor, textWidthPx, textHeightPx, forEachInkPixel, type Glyph } from "./font.js";
+export { RgbaCanvas, measureText, type Rgb, type Rect, type LineStyle, type TextStyle } from "./raster.js";
+export {
+  srgbEncode,
+  srgbDecode,
+  linearSrgbToOklab,
+  oklabToLinearSrgb,
+  xyzD65ToOklab,
+  srgb8ToOklab,
+  rampColour,
+  rampIndex,
+  COLOUR_RAMP_SIZE,
+  COLOUR_RAMP_OKLAB,
+  COLOUR_RAMP_RGB,
+  type Oklab,
+  type LinearRgb,
+} from "./colourRamp.js";
+export {
+  niceNumber,
+  niceTicks,
+  ticksWithStep,
+  nextNiceStep,
+  siScaleForHz,
+  siScaleForSeconds,
+  fractionDigitsForStep,
+  formatTickLabel,
+  formatHz,
+  formatSeconds,
+  type Ticks,
+  type SiScale,
+} from "./ticks.js";
+export {
+  buildAxis,
+  positionPx,
+  drawAxes,
+  tickLengthPx,
+  axisGapPx,
+  xAxisDepthPx,
+  yAxisDepthPx,
+  type Axis,
+  type AxisTick,
+  type AxisQuantity,
+  type AxisRequest,
+  type AxesStyle,
+} from "./axes.js";
+export { drawColourBar, colourBarWidthPx, colourBarLabelDepthPx, type ColourBarStyle } from "./colourBar.js";
+export { PAGE_STYLE, MIN_FIGURE_SIZE, checkFigureSize, textScaleFor, pagePaddingPx, fitText, drawTitleBlock } from "./figureFrame.js";
+export { encodePng } from "./encodePng.js";
+export {
+  autoDbRange,
+  AUTO_DB_RANGE_STEP_DB,
+  AUTO_DB_RANGE_FLOOR_MARGIN_DB,
+  AUTO_DB_RANGE_MIN_SPAN_DB,
+  AUTO_DB_RANGE_FLOOR_PERCENTILE,
+} from "./autoDbRange.js";
+export { renderSpectrogram, type SpectrogramFigureInput, type FigureLayout } from "./spectrogramFigure.js";
