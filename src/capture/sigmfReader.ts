@@ -1,0 +1,127 @@
+/**
+ * SigMF recordings: `NAME.sigmf-meta` beside `NAME.sigmf-data` (or the file named by
+ * core:dataset for a non-conforming dataset). Either path may be given. The metadata is checked
+ * by sigmf.ts; this turns it and the data file's size into CaptureMeta.
+ */
+import { readFile, stat } from "node:fs/promises";
+import { dirname, join } from "node:path";
+import { CaptureFormatError, UsageError } from "../errors.js";
+import { overrideWarning, type CaptureOptions } from "./captureOptions.js";
+import { formatInfo } from "./sampleFormat.js";
+import { countFrames } from "./frameCount.js";
+import { parseSigmfMeta, type SigmfRecording } from "./sigmf.js";
+import type { CaptureMeta, Origin, SampleFormat } from "./source.js";
+
+/** Largest .sigmf-meta read (it is read whole): 64 MiB of JSON is far beyond any real one. */
+const MAX_META_BYTES = 64 * 1024 * 1024;
+
+/** The two files of a SigMF recording given either of them. */
+export function sigmfPaths(path: string): { metaPath: string; dataPath: string } {
+  const stem = path.replace(/\.sigmf-(meta|data)$/i, "");
+  return { metaPath: `${stem}.sigmf-meta`, dataPath: `${stem}.sigmf-data` };
+}
+
+/** Reads and checks the .sigmf-meta file; a missing or unreadable file is a CaptureFormatError. */
+export async function readSigmfRecording(metaPath: string): Promise<SigmfRecording> {
+  let bytes: number;
+  try {
+    bytes = (await stat(metaPath)).size;
+  } catch {
+    throw new CaptureFormatError(metaPath, "no such file: a SigMF recording needs its .sigmf-meta beside the .sigmf-data");
+  }
+  if (bytes > MAX_META_BYTES) throw new CaptureFormatError(metaPath, `is ${bytes} bytes, too large for SigMF metadata (limit ${MAX_META_BYTES})`);
+  const text = await readFile(metaPath, "utf8");
+  return parseSigmfMeta(text, metaPath);
+}
+
+/** The data file of a recording: core:dataset in the meta file's folder, else NAME.sigmf-data. */
+export function sigmfDataPath(recording: SigmfRecording, metaPath: string, defaultDataPath: string): string {
+  return recording.dataset === null ? defaultDataPath : join(dirname(metaPath), recording.dataset);
+}
+
+/**
+ * CaptureMeta of a checked recording whose data file `dataPath` is `fileBytes` long. Samples
+ * run from core:header_bytes to fileBytes − core:trailing_bytes. Flags override the metadata
+ * with a warning (`--format` over core:datatype, `--rate` over core:sample_rate, `--center` over
+ * core:frequency). Errors: a real datatype without --real, a datatype iqaudit cannot decode, no
+ * rate at all (UsageError for --rate), header and trailing bytes larger than the file.
+ */
+export function sigmfCaptureMeta(
+  recording: SigmfRecording,
+  paths: { path: string; metaPath: string; dataPath: string },
+  fileBytes: number,
+  options: CaptureOptions,
+): CaptureMeta {
+  const { path, metaPath, dataPath } = paths;
+  const warnings: string[] = [...recording.warnings];
+  const dt = recording.datatype;
+  let format: SampleFormat;
+  let formatOrigin: Origin = "sigmf";
+  if (options.format === "wav") throw new UsageError("--format", `wav does not apply to the SigMF recording ${path}`);
+  if (options.format !== undefined) {
+    if (options.format !== dt.format) warnings.push(overrideWarning("--format", options.format, "SigMF core:datatype", dt.text));
+    format = options.format;
+    formatOrigin = "flag";
+  } else if (dt.format === null) {
+    throw new CaptureFormatError(
+      metaPath,
+      `has core:datatype ${dt.text}, a valid SigMF datatype that iqaudit cannot decode (it reads cu8, ci8, ci16_le, ci16_be, ci32_le, cf32_le, cf64_le and their real r forms)`,
+    );
+  } else format = dt.format;
+  const complex = formatInfo(format).complex;
+  if (!complex && options.real !== true) {
+    throw new CaptureFormatError(metaPath, `has the real datatype ${format}, not IQ; give --real to read it as a real signal`);
+  }
+  if (complex && options.real === true) warnings.push(`--real is ignored: ${path} holds complex (IQ) samples.`);
+
+  let sampleRateHz: number;
+  let rateOrigin: Origin = "sigmf";
+  if (options.sampleRateHz !== undefined) {
+    if (recording.sampleRateHz !== null && recording.sampleRateHz !== options.sampleRateHz) {
+      warnings.push(overrideWarning("--rate", options.sampleRateHz, "SigMF core:sample_rate", recording.sampleRateHz));
+    }
+    sampleRateHz = options.sampleRateHz;
+    rateOrigin = "flag";
+  } else if (recording.sampleRateHz !== null) sampleRateHz = recording.sampleRateHz;
+  else throw new UsageError("--rate", `is required: ${metaPath} has no global core:sample_rate`);
+
+  let centerHz = recording.frequencyHz;
+  let centerOrigin: Origin = centerHz === null ? "unknown" : "sigmf";
+  if (options.centerHz !== undefined) {
+    if (centerHz !== null && centerHz !== options.centerHz) {
+      warnings.push(overrideWarning("--center", options.centerHz, "SigMF core:frequency", centerHz));
+    }
+    centerHz = options.centerHz;
+    centerOrigin = "flag";
+  }
+
+  const sampleBytes = fileBytes - recording.headerBytes - recording.trailingBytes;
+  if (sampleBytes < 0) {
+    throw new CaptureFormatError(
+      dataPath,
+      `is ${fileBytes} bytes, fewer than the ${recording.headerBytes} header and ${recording.trailingBytes} trailing bytes that ${metaPath} declares`,
+    );
+  }
+  const frames = countFrames(dataPath, sampleBytes, format, recording.headerBytes + recording.trailingBytes > 0 ? "the samples" : undefined);
+  warnings.push(...frames.warnings);
+  if (options.swapIq === true && !complex) warnings.push("--swap-iq has no effect on a real signal.");
+  return {
+    path,
+    dataPath,
+    container: "sigmf",
+    format,
+    complex,
+    sampleRateHz,
+    centerHz,
+    ppm: options.ppm ?? 0,
+    datetime: recording.datetime,
+    fileSamples: frames.fileSamples,
+    frameBytes: frames.frameBytes,
+    dataOffsetBytes: recording.headerBytes,
+    fileBytes,
+    trailingBytes: frames.trailingBytes,
+    swapIq: options.swapIq === true && complex,
+    origin: { format: formatOrigin, sampleRateHz: rateOrigin, centerHz: centerOrigin },
+    warnings,
+  };
+}

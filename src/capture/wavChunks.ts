@@ -1,0 +1,173 @@
+/**
+ * A RIFF / RF64 chunk walker: finds where each chunk of a WAVE file lies, reading only the
+ * 8-byte chunk headers (and the ds64 body), never the samples.
+ *
+ * RIFF (Microsoft RIFF docs): "RIFF" u32 size "WAVE", then chunks of id (4 ASCII) u32 size and
+ * size bytes of body, each followed by a pad byte when size is odd. RF64 (EBU Tech 3306, 2009):
+ * the form id is "RF64" and the first chunk is "ds64" with u64 riffSize, u64 dataSize, u64
+ * sampleCount, u32 tableLength and tableLength entries of (id, u64 size); a 32-bit size field of
+ * 0xFFFFFFFF means "see ds64". "BW64" (ITU-R BS.2088, from memory) has the same layout and is
+ * read the same way. Unknown chunks are skipped.
+ */
+import type { FileHandle } from "node:fs/promises";
+import { CaptureFormatError } from "../errors.js";
+
+export interface WavChunk {
+  /** Four-character chunk id, e.g. "fmt ", "data", "LIST". */
+  readonly id: string;
+  /** Byte offset of the chunk header in the file. */
+  readonly headerOffsetBytes: number;
+  /** Byte offset of the chunk body (header offset + 8). */
+  readonly bodyOffsetBytes: number;
+  /** Body size in bytes, from the header or, for 0xFFFFFFFF in RF64, from ds64. */
+  readonly sizeBytes: number;
+}
+
+export interface WavLayout {
+  readonly form: "RIFF" | "RF64" | "BW64";
+  /** Every chunk in file order (ds64 included). */
+  readonly chunks: readonly WavChunk[];
+  /** Oddities that do not stop reading, as plain sentences. */
+  readonly warnings: readonly string[];
+}
+
+const UINT32_MAX = 0xffffffff;
+/** A guard against walking a garbage file one 8-byte chunk at a time. */
+const MAX_CHUNKS = 10000;
+
+/** True when the first 12 bytes of a file are a RIFF, RF64 or BW64 WAVE header. */
+export function isWavMagic(head: Uint8Array): boolean {
+  if (head.byteLength < 12) return false;
+  const form = ascii(head, 0);
+  return (form === "RIFF" || form === "RF64" || form === "BW64") && ascii(head, 8) === "WAVE";
+}
+
+/**
+ * Walks the chunks of the WAVE file open in `handle` (`fileBytes` long). Errors
+ * (CaptureFormatError naming `path` and the byte offset): too short, bad magic, a missing or
+ * short ds64 in RF64, a chunk id that is not printable ASCII, a chunk header cut off before any
+ * data chunk, a chunk whose body runs past the end of the file.
+ */
+export async function walkWavChunks(handle: FileHandle, fileBytes: number, path: string): Promise<WavLayout> {
+  const warnings: string[] = [];
+  const head = await readBytesAt(handle, 0, 12);
+  if (head.byteLength < 12) {
+    throw new CaptureFormatError(path, `is too short for a WAV header (${fileBytes} bytes; a RIFF header takes 12)`, 0);
+  }
+  const formId = ascii(head, 0);
+  if (formId !== "RIFF" && formId !== "RF64" && formId !== "BW64") {
+    const hint = formId === "RIFX" ? " (big-endian RIFX WAV is not supported)" : "";
+    throw new CaptureFormatError(path, `is not a WAV file: it starts with "${printable(formId)}", not RIFF or RF64${hint}`, 0);
+  }
+  if (ascii(head, 8) !== "WAVE") {
+    throw new CaptureFormatError(path, `is a RIFF file of form "${printable(ascii(head, 8))}", not WAVE`, 8);
+  }
+  const form = formId;
+  const view = new DataView(head.buffer, head.byteOffset, 12);
+  let riffSize = view.getUint32(4, true);
+  const ds64 = form === "RIFF" ? null : await readDs64(handle, fileBytes, path);
+  if (ds64 !== null) riffSize = ds64.riffSize;
+
+  const chunks: WavChunk[] = [];
+  let position = 12;
+  while (position < fileBytes) {
+    if (chunks.length >= MAX_CHUNKS) {
+      throw new CaptureFormatError(path, `has more than ${MAX_CHUNKS} chunks before byte ${position}; the header is corrupt`, position);
+    }
+    const header = await readBytesAt(handle, position, 8);
+    if (header.byteLength < 8) {
+      const stray = fileBytes - position;
+      if (chunks.some((c) => c.id === "data")) {
+        warnings.push(`The last ${stray} bytes of ${path} are not a whole RIFF chunk and are ignored.`);
+        break;
+      }
+      throw new CaptureFormatError(path, `ends inside a chunk header at byte ${position} (${stray} of 8 bytes)`, position);
+    }
+    const id = ascii(header, 0);
+    if (!/^[\x20-\x7e]{4}$/.test(id)) {
+      throw new CaptureFormatError(path, `has a corrupt chunk header at byte ${position}: the id "${printable(id)}" is not 4 ASCII characters`, position);
+    }
+    const declared = new DataView(header.buffer, header.byteOffset, 8).getUint32(4, true);
+    const sizeBytes = declared === UINT32_MAX && ds64 !== null ? ds64Size(ds64, id, path, position) : declared;
+    const bodyOffsetBytes = position + 8;
+    if (bodyOffsetBytes + sizeBytes > fileBytes) {
+      throw new CaptureFormatError(
+        path,
+        `chunk "${id}" at byte ${position} declares ${sizeBytes} bytes but only ${fileBytes - bodyOffsetBytes} remain (the file is truncated or the header corrupt)`,
+        position,
+      );
+    }
+    chunks.push({ id, headerOffsetBytes: position, bodyOffsetBytes, sizeBytes });
+    position = bodyOffsetBytes + sizeBytes + (sizeBytes % 2);
+  }
+  const expected = riffSize + 8;
+  if (expected !== fileBytes && expected !== fileBytes + 1) {
+    warnings.push(`The ${form} size field of ${path} gives ${expected} bytes but the file has ${fileBytes}; the chunks are read as found.`);
+  }
+  return { form, chunks, warnings };
+}
+
+interface Ds64 {
+  readonly riffSize: number;
+  readonly dataSize: number;
+  readonly table: ReadonlyMap<string, number>;
+}
+
+async function readDs64(handle: FileHandle, fileBytes: number, path: string): Promise<Ds64> {
+  const header = await readBytesAt(handle, 12, 8);
+  if (header.byteLength < 8 || ascii(header, 0) !== "ds64") {
+    throw new CaptureFormatError(path, "is an RF64 file without the ds64 chunk that must come first after WAVE (EBU Tech 3306)", 12);
+  }
+  const size = new DataView(header.buffer, header.byteOffset, 8).getUint32(4, true);
+  if (size < 28 || 20 + size > fileBytes) {
+    throw new CaptureFormatError(path, `has a ds64 chunk of ${size} bytes; it needs at least 28 and must fit the file`, 12);
+  }
+  const body = await readBytesAt(handle, 20, size);
+  const v = new DataView(body.buffer, body.byteOffset, body.byteLength);
+  const riffSize = u64(v, 0, path);
+  const dataSize = u64(v, 8, path);
+  const tableLength = v.getUint32(24, true);
+  if (28 + 12 * tableLength > size) {
+    throw new CaptureFormatError(path, `has a ds64 table of ${tableLength} entries that does not fit its ${size}-byte chunk`, 12);
+  }
+  const table = new Map<string, number>();
+  for (let k = 0; k < tableLength; k++) table.set(ascii(body, 28 + 12 * k), u64(v, 32 + 12 * k, path));
+  return { riffSize, dataSize, table };
+}
+
+function ds64Size(ds64: Ds64, id: string, path: string, position: number): number {
+  if (id === "data") return ds64.dataSize;
+  const size = ds64.table.get(id);
+  if (size === undefined) {
+    throw new CaptureFormatError(path, `chunk "${id}" at byte ${position} has size 0xFFFFFFFF but ds64 gives no size for it`, position);
+  }
+  return size;
+}
+
+function u64(v: DataView, offset: number, path: string): number {
+  const n = v.getBigUint64(offset, true);
+  if (n > BigInt(Number.MAX_SAFE_INTEGER)) {
+    throw new CaptureFormatError(path, `has a ds64 size of ${n} bytes, beyond what can be addressed`, 20 + offset);
+  }
+  return Number(n);
+}
+
+/** Reads up to `length` bytes at byte `position` of `handle`; fewer at the end of the file. */
+export async function readBytesAt(handle: FileHandle, position: number, length: number): Promise<Uint8Array> {
+  const out = new Uint8Array(length);
+  let got = 0;
+  while (got < length) {
+    const { bytesRead } = await handle.read(out, got, length - got, position + got);
+    if (bytesRead === 0) break;
+    got += bytesRead;
+  }
+  return out.subarray(0, got);
+}
+
+function ascii(b: Uint8Array, offset: number): string {
+  return String.fromCharCode(...b.subarray(offset, offset + 4));
+}
+
+function printable(s: string): string {
+  return s.replace(/[^\x20-\x7e]/g, "?");
+}
