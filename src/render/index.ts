@@ -55,3 +55,12 @@ export {
   AUTO_DB_RANGE_FLOOR_PERCENTILE,
 } from "./autoDbRange.js";
 export { renderSpectrogram, type SpectrogramFigureInput, type FigureLayout } from "./spectrogramFigure.js";
+export {
+  renderLineFigure,
+  SERIES_COLOURS,
+  MARKER_COLOUR,
+  type LineFigureInput,
+  type LineFigureAxisInput,
+  type LineSeries,
+  type MarkerLine,
+} from "./lineFigure.js";

@@ -1,0 +1,238 @@
+import { buildAxis, drawAxes, positionPx, xAxisDepthPx, yAxisDepthPx, type AxisQuantity } from "./axes.js";
+import { encodePng } from "./encodePng.js";
+import { checkFigureSize, drawTitleBlock, fitText, PAGE_STYLE, pagePaddingPx, textScaleFor } from "./figureFrame.js";
+import { textHeightPx, textWidthPx } from "./font.js";
+import { RgbaCanvas, type Rect, type Rgb } from "./raster.js";
+import type { FigureLayout } from "./spectrogramFigure.js";
+
+/** One curve: points (xValues[i], yValues[i]) joined in order; a NaN in either breaks the line. */
+export interface LineSeries {
+  /** Name in the legend, e.g. "PSD, Welch mean". */
+  readonly label: string;
+  /** In the x axis base unit (Hz, s or the linear unit). */
+  readonly xValues: ArrayLike<number>;
+  /** In the y axis base unit; same length as xValues. */
+  readonly yValues: ArrayLike<number>;
+  /** Default: the next colour of SERIES_COLOURS. */
+  readonly colour?: Rgb;
+  readonly dashed?: boolean;
+}
+
+/** A labelled straight line across the plot: vertical at an x value, or horizontal at a y value. */
+export interface MarkerLine {
+  readonly orientation: "vertical" | "horizontal";
+  /** Position in the base unit of the axis it marks (x for vertical, y for horizontal). */
+  readonly value: number;
+  /** Short text beside the line, e.g. "OBW lower edge". */
+  readonly label: string;
+  /** Default: MARKER_COLOUR. */
+  readonly colour?: Rgb;
+}
+
+/** One axis of a line figure. The range defaults to the data (and markers); y gets 5 % headroom each side. */
+export interface LineFigureAxisInput {
+  /** Name without the unit; the unit (SI-prefixed for hertz and seconds) is added in brackets. */
+  readonly name: string;
+  readonly quantity: AxisQuantity;
+  readonly min?: number;
+  readonly max?: number;
+}
+
+/** What a line figure shows. */
+export interface LineFigureInput {
+  readonly title: string;
+  readonly subtitle: string;
+  readonly x: LineFigureAxisInput;
+  readonly y: LineFigureAxisInput;
+  readonly series: readonly LineSeries[];
+  readonly markers?: readonly MarkerLine[];
+  /** Size of the whole image, at least 480 × 320 px. */
+  readonly widthPx: number;
+  readonly heightPx: number;
+}
+
+/** Default series colours, in order: blue, burnt orange, green, plum, slate. */
+export const SERIES_COLOURS: readonly Rgb[] = [
+  [24, 86, 160],
+  [205, 92, 20],
+  [30, 130, 76],
+  [140, 50, 140],
+  [96, 100, 108],
+];
+
+/** Default colour of marker lines: a deep red. */
+export const MARKER_COLOUR: Rgb = [178, 34, 52];
+
+function extent(values: Iterable<number>): [number, number] | null {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const v of values) {
+    if (!Number.isFinite(v)) continue;
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
+  }
+  return lo <= hi ? [lo, hi] : null;
+}
+
+function* arrayValues(a: ArrayLike<number>): Iterable<number> {
+  for (let i = 0; i < a.length; i++) yield a[i] ?? NaN;
+}
+
+function* seriesAndMarkerValues(input: LineFigureInput, axis: "x" | "y"): Iterable<number> {
+  for (const s of input.series) yield* arrayValues(axis === "x" ? s.xValues : s.yValues);
+  for (const m of input.markers ?? []) if ((m.orientation === "vertical") === (axis === "x")) yield m.value;
+}
+
+function axisRange(input: LineFigureInput, axis: "x" | "y"): [number, number] {
+  const spec = input[axis];
+  const data = extent(seriesAndMarkerValues(input, axis)) ?? [0, 1];
+  const headroom = axis === "y" ? 0.05 * (data[1] - data[0]) : 0;
+  let lo = spec.min ?? data[0] - headroom;
+  let hi = spec.max ?? data[1] + headroom;
+  if (!(hi > lo)) {
+    // A flat series: open a range around it.
+    const half = lo === 0 ? 1 : Math.abs(lo) * 0.05;
+    lo -= half;
+    hi += half;
+  }
+  return [lo, hi];
+}
+
+function overlaps(a: Rect, b: Rect): boolean {
+  return a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
+}
+
+// Moves `box` down (or up when `step` < 0) until it is clear of every placed box or leaves the plot.
+function clearOf(box: Rect, placed: readonly Rect[], step: number, plot: Rect): Rect {
+  let b = box;
+  for (let i = 0; i < 40 && placed.some((p) => overlaps(p, b)); i++) b = { ...b, y: b.y + step };
+  return { ...b, y: Math.min(plot.y + plot.height - b.height, Math.max(plot.y, b.y)) };
+}
+
+/**
+ * A line figure as PNG: several series on one pair of axes (ticks, labels and units on both),
+ * vertical and horizontal marker lines with their labels inside the plot, a legend row under
+ * the subtitle, and a light grid. xOf and yOf map axis values to continuous image coordinates
+ * (pixel column c covers [c, c + 1)). Throws RangeError for a figure below 480 × 320 px, a
+ * series whose arrays differ in length, or an axis range with max ≤ min.
+ */
+export function renderLineFigure(input: LineFigureInput): {
+  png: Buffer;
+  layout: FigureLayout;
+  xOf(x: number): number;
+  yOf(y: number): number;
+} {
+  const { widthPx, heightPx } = input;
+  checkFigureSize("renderLineFigure", widthPx, heightPx);
+  for (const s of input.series)
+    if (s.xValues.length !== s.yValues.length)
+      throw new RangeError(`renderLineFigure: series "${s.label}" has ${s.xValues.length} x values and ${s.yValues.length} y values`);
+  const [xMin, xMax] = axisRange(input, "x");
+  const [yMin, yMax] = axisRange(input, "y");
+  if (!(xMax > xMin) || !(yMax > yMin)) throw new RangeError(`renderLineFigure: axis range must have max > min`);
+
+  const s = textScaleFor(widthPx, heightPx);
+  const pad = pagePaddingPx(s);
+  const lineH = textHeightPx(s);
+  const canvas = new RgbaCanvas(widthPx, heightPx, PAGE_STYLE.pageColour);
+  let top = drawTitleBlock(canvas, input.title, input.subtitle, s) + 4 * s;
+  const colours = input.series.map((series, i) => series.colour ?? SERIES_COLOURS[i % SERIES_COLOURS.length] ?? MARKER_COLOUR);
+
+  // Legend: a swatch and the label per series, wrapping onto further rows.
+  const swatchPx = 14 * s;
+  let legendX = pad;
+  input.series.forEach((series, i) => {
+    const label = fitText(series.label, widthPx - 2 * pad - swatchPx - 4 * s, s);
+    const itemWidth = swatchPx + 4 * s + textWidthPx(label, s);
+    if (legendX > pad && legendX + itemWidth > widthPx - pad) {
+      legendX = pad;
+      top += lineH + 3 * s;
+    }
+    const colour = colours[i] ?? MARKER_COLOUR;
+    const midY = top + Math.floor((7 * s) / 2);
+    canvas.line(legendX, midY, legendX + swatchPx - 1, midY, colour, series.dashed === true ? { widthPx: 2 * s, dashPx: [4 * s, 3 * s] } : { widthPx: 2 * s });
+    canvas.text(label, legendX + swatchPx + 4 * s, top, PAGE_STYLE.inkColour, { scale: s });
+    legendX += itemWidth + 14 * s;
+  });
+  if (input.series.length > 0) top += lineH;
+
+  const plotTop = top + 8 * s;
+  const plotHeight = heightPx - pad - xAxisDepthPx(s) - plotTop;
+  const yAxis = buildAxis({ min: yMin, max: yMax, quantity: input.y.quantity, name: input.y.name, lengthPx: plotHeight, orientation: "vertical", textScale: s });
+  const plotLeft = pad + yAxisDepthPx(yAxis, s);
+  const xRequest = { min: xMin, max: xMax, quantity: input.x.quantity, name: input.x.name, orientation: "horizontal", textScale: s } as const;
+  // The last x label may stick out past the plot by half its width: leave room for it.
+  const draft = buildAxis({ ...xRequest, lengthPx: widthPx - plotLeft - pad });
+  const lastLabel = draft.ticks[draft.ticks.length - 1]?.label ?? "";
+  const plotWidth = widthPx - plotLeft - pad - Math.ceil(textWidthPx(lastLabel, s) / 2);
+  if (plotWidth < 64 || plotHeight < 64) throw new RangeError(`renderLineFigure: ${widthPx} × ${heightPx} px leaves no room for the plot`);
+  const xAxis = buildAxis({ ...xRequest, lengthPx: plotWidth });
+  const plot: Rect = { x: plotLeft, y: plotTop, width: plotWidth, height: plotHeight };
+
+  drawAxes(canvas, plot, xAxis, yAxis, {
+    textScale: s,
+    frameColour: PAGE_STYLE.frameColour,
+    textColour: PAGE_STYLE.inkColour,
+    gridColour: PAGE_STYLE.gridColour,
+    yMinAtTop: false,
+  });
+  const xOf = (x: number): number => positionPx(x, xAxis, plot.x, plot.width, false);
+  const yOf = (y: number): number => positionPx(y, yAxis, plot.y, plot.height, true);
+  // Pixel under a continuous coordinate, the last pixel for the far edge itself.
+  const px = (x: number): number => Math.min(plot.x + plot.width - 1, Math.floor(xOf(x)));
+  const py = (y: number): number => Math.min(plot.y + plot.height - 1, Math.floor(yOf(y)));
+
+  canvas.setClip(plot);
+  input.series.forEach((series, i) => {
+    const colour = colours[i] ?? MARKER_COLOUR;
+    const style = series.dashed === true ? { widthPx: s, dashPx: [5 * s, 3 * s] as const } : { widthPx: s };
+    let prev: [number, number] | null = null;
+    for (let k = 0; k < series.xValues.length; k++) {
+      const x = series.xValues[k] ?? NaN;
+      const y = series.yValues[k] ?? NaN;
+      if (!Number.isFinite(x) || !Number.isFinite(y)) {
+        prev = null;
+        continue;
+      }
+      const point: [number, number] = [px(x), py(y)];
+      if (prev === null) canvas.line(point[0], point[1], point[0], point[1], colour, style);
+      else canvas.line(prev[0], prev[1], point[0], point[1], colour, style);
+      prev = point;
+    }
+  });
+
+  const placed: Rect[] = [];
+  const labels: { box: Rect; text: string; colour: Rgb }[] = [];
+  const inset = 3 * s;
+  for (const marker of input.markers ?? []) {
+    const colour = marker.colour ?? MARKER_COLOUR;
+    const dash = { widthPx: s, dashPx: [6 * s, 4 * s] as const };
+    const w = textWidthPx(marker.label, s) + 2 * s;
+    const h = lineH + 2 * s;
+    let box: Rect;
+    if (marker.orientation === "vertical") {
+      const x = px(marker.value);
+      canvas.line(x, plot.y, x, plot.y + plot.height - 1, colour, dash);
+      // Label on the side away from the plot's centre when it fits there, else the other side.
+      const outer = x < plot.x + plot.width / 2 ? x - inset - w : x + inset;
+      const inner = x < plot.x + plot.width / 2 ? x + inset : x - inset - w;
+      const fits = outer >= plot.x && outer + w <= plot.x + plot.width;
+      box = clearOf({ x: fits ? outer : inner, y: plot.y + inset, width: w, height: h }, placed, h + s, plot);
+    } else {
+      const y = py(marker.value);
+      canvas.line(plot.x, y, plot.x + plot.width - 1, y, colour, dash);
+      const above = y - inset - h;
+      box = clearOf({ x: plot.x + plot.width - inset - w, y: above >= plot.y ? above : y + inset, width: w, height: h }, placed, -(h + s), plot);
+    }
+    placed.push(box);
+    labels.push({ box, text: marker.label, colour });
+  }
+  // Labels last, on a page-coloured patch, so that no line crosses them.
+  for (const { box, text, colour } of labels) {
+    canvas.fillRect(box, PAGE_STYLE.pageColour);
+    canvas.text(text, box.x + s, box.y + s, colour, { scale: s });
+  }
+  canvas.setClip(null);
+
+  return { png: encodePng(canvas), layout: { plot }, xOf, yOf };
+}
