@@ -44,12 +44,23 @@ export function fftPlan(size: number): FftPlan {
   const engine = new FFT(size);
   const plan: FftPlan = {
     size,
-    createBuffer: () => engine.createComplexArray(),
+    createBuffer: () => doubleBuffer(engine.createComplexArray()),
     forward: (out, input) => engine.transform(out, input),
     inverse: (out, input) => engine.inverseTransform(out, input),
   };
   plans.set(size, plan);
   return plan;
+}
+
+/**
+ * Zeroes `a` through a non-integer value, so that V8 stores it as an array of doubles from the
+ * start; fft.js is then compiled once for that element kind and never has to deoptimise when a
+ * buffer changes from small integers to doubles.
+ */
+function doubleBuffer(a: number[]): number[] {
+  for (let i = 0; i < a.length; i++) a[i] = 0.5;
+  for (let i = 0; i < a.length; i++) a[i] = 0;
+  return a;
 }
 
 /** True when `n` is a size `fftPlan` accepts (a power of two, at least 2). */
