@@ -1,0 +1,3 @@
+export { runPass1, PASS1_DEFAULTS } from "./pass1.js";
+export type { Pass1Options, Pass1Result, NoiseFloor } from "./pass1.js";
+export type { SpectrumPeak } from "./spectrumPeak.js";

@@ -1,0 +1,314 @@
+/**
+ * Pass 1: one streaming sweep over a capture. Reads the data file once, front to back: every
+ * byte goes into the SHA-256, and the bytes of the analysed span are cut into blocks (each with
+ * an overlap prefix) for the Welch PSD, the spectrogram rows and the health statistics, in up to
+ * two worker threads. Memory: a fixed pool of block buffers plus the accumulators, O(FFT length ×
+ * spectrogram rows), never O(capture length). See docs/methods.md and docs/architecture.md.
+ */
+import { createHash, type Hash } from "node:crypto";
+import { existsSync } from "node:fs";
+import { open, type FileHandle } from "node:fs/promises";
+import { availableParallelism } from "node:os";
+import { fileURLToPath } from "node:url";
+import { Worker } from "node:worker_threads";
+import type { CaptureMeta, SampleSpan } from "../capture/source.js";
+import { CaptureFormatError, ParameterError } from "../errors.js";
+import { noiseFloor, type HealthFigures, type Spectrogram, type WelchPsd } from "../dsp/index.js";
+import { formatInfo } from "../capture/sampleFormat.js";
+import { Pass1Engine, prefixSamples, type Pass1Config } from "./pass1Engine.js";
+import type { WorkerReply, WorkerRequest } from "./workerMessages.js";
+import { spectrumPeak, type SpectrumPeak } from "./spectrumPeak.js";
+
+export interface Pass1Options {
+  /** Welch segment length, samples (default 4096). */
+  readonly welchFftLength?: number | undefined;
+  /** Welch overlap, samples (default half the segment: 50 %). */
+  readonly welchOverlapLength?: number | undefined;
+  /** Spectrogram frame length, samples (default 1024, frames do not overlap). */
+  readonly spectrogramFftLength?: number | undefined;
+  /** Spectrogram rows, whatever the duration (default 1000). */
+  readonly spectrogramRows?: number | undefined;
+  /** Worker threads: 0 = in this thread; "auto" (default) = 2 for long spans on a multi-core machine. */
+  readonly workers?: number | "auto" | undefined;
+  /** Samples per block (default 262 144). */
+  readonly blockSamples?: number | undefined;
+  /** Called after each block with the bytes read so far and the bytes to read in all. */
+  readonly onProgress?: ((doneBytes: number, totalBytes: number) => void) | undefined;
+}
+
+export const PASS1_DEFAULTS = {
+  welchFftLength: 4096,
+  spectrogramFftLength: 1024,
+  spectrogramRows: 1000,
+  blockSamples: 262_144,
+} as const;
+
+export interface NoiseFloor {
+  readonly densityPerHz: number;
+  readonly dbfsPerHz: number;
+  readonly method: string;
+}
+
+export interface Pass1Result {
+  /** SHA-256 of the whole data file as stored, hex. */
+  readonly sha256: string;
+  readonly span: SampleSpan;
+  readonly psd: WelchPsd;
+  readonly spectrogram: Spectrogram;
+  readonly health: HealthFigures;
+  readonly noiseFloor: NoiseFloor;
+  readonly peak: SpectrumPeak;
+  /** Worker threads used (0 = the calling thread). */
+  readonly workers: number;
+  readonly warnings: readonly string[];
+}
+
+/** Runs pass 1 over `span` of the capture described by `meta`. */
+export async function runPass1(meta: CaptureMeta, span: SampleSpan, options: Pass1Options = {}): Promise<Pass1Result> {
+  const warnings: string[] = [];
+  const config = planPass1(meta, span, options, warnings);
+  const workerCount = chooseWorkers(options.workers, span.sampleCount, config.maxBlockSamples);
+  const sink = workerCount > 0 ? new WorkerSink(config, workerCount) : new InlineSink(config);
+  const handle = await open(meta.dataPath, "r");
+  let sha256: string;
+  try {
+    sha256 = await sweep(handle, meta, span, config, sink, options.onProgress);
+  } catch (e) {
+    await sink.abort();
+    throw e;
+  } finally {
+    await handle.close();
+  }
+  const { psd, spectrogram, health } = await sink.finish();
+  return {
+    sha256,
+    span,
+    psd,
+    spectrogram,
+    health,
+    noiseFloor: noiseFloor(psd),
+    peak: spectrumPeak(psd),
+    workers: workerCount,
+    warnings,
+  };
+}
+
+/** Checks the FFT settings against the span; a segment longer than the span is shortened, with a warning. */
+function planPass1(meta: CaptureMeta, span: SampleSpan, options: Pass1Options, warnings: string[]): Pass1Config {
+  const n = span.sampleCount;
+  if (n < 16) throw new CaptureFormatError(meta.path, `${n} samples in the analysed span; at least 16 are needed`);
+  const fit = (name: string, wanted: number): number => {
+    if (!Number.isInteger(wanted) || wanted < 16 || wanted > 1 << 20 || (wanted & (wanted - 1)) !== 0) {
+      throw new ParameterError(name, `${wanted} is not a power of two between 16 and 1048576`);
+    }
+    if (wanted <= n) return wanted;
+    let fitted = 16;
+    while (fitted * 2 <= n) fitted *= 2;
+    warnings.push(`${name} ${wanted} exceeds the ${n} samples analysed; ${fitted} is used instead`);
+    return fitted;
+  };
+  const welchFftLength = fit("FFT length", options.welchFftLength ?? PASS1_DEFAULTS.welchFftLength);
+  const spectrogramFftLength = fit("spectrogram FFT length", options.spectrogramFftLength ?? PASS1_DEFAULTS.spectrogramFftLength);
+  const welchOverlapLength = options.welchOverlapLength ?? welchFftLength / 2;
+  if (!Number.isInteger(welchOverlapLength) || welchOverlapLength < 0 || welchOverlapLength >= welchFftLength) {
+    throw new ParameterError("overlap", `${welchOverlapLength} samples must be at least 0 and less than the segment length ${welchFftLength}`);
+  }
+  const rows = options.spectrogramRows ?? PASS1_DEFAULTS.spectrogramRows;
+  if (!Number.isInteger(rows) || rows < 1) throw new ParameterError("rows", `${rows} must be a whole number of at least 1`);
+  const blockSamples = options.blockSamples ?? PASS1_DEFAULTS.blockSamples;
+  return {
+    format: meta.format,
+    swapIq: meta.swapIq,
+    sampleRateHz: meta.sampleRateHz,
+    totalSamples: n,
+    welchFftLength,
+    welchOverlapLength,
+    spectrogramFftLength,
+    spectrogramRows: rows,
+    maxBlockSamples: Math.max(blockSamples, 1),
+  };
+}
+
+const WORKER_URL = new URL("./pass1Worker.js", import.meta.url);
+
+function chooseWorkers(requested: number | "auto" | undefined, samples: number, blockSamples: number): number {
+  // The worker script exists only in the compiled build (dist/); from sources, run inline.
+  if (!existsSync(fileURLToPath(WORKER_URL))) return 0;
+  if (requested === undefined || requested === "auto") {
+    return samples >= 4 * blockSamples && availableParallelism() >= 2 ? 2 : 0;
+  }
+  return Math.max(0, Math.min(8, Math.floor(requested)));
+}
+
+/** Reads the file front to back: hashes every byte, hands the span's bytes to the sink in blocks. */
+async function sweep(
+  handle: FileHandle,
+  meta: CaptureMeta,
+  span: SampleSpan,
+  config: Pass1Config,
+  sink: BlockSink,
+  onProgress: Pass1Options["onProgress"],
+): Promise<string> {
+  const hash = createHash("sha256");
+  const fb = meta.frameBytes;
+  const spanStartByte = meta.dataOffsetBytes + span.startSample * fb;
+  const spanEndByte = spanStartByte + span.sampleCount * fb;
+  const total = meta.fileBytes;
+  await hashRange(handle, hash, 0, spanStartByte, meta.path);
+  const prefix = prefixSamples(config);
+  const tail = new Uint8Array(prefix * fb);
+  let tailFrames = 0;
+  for (let owned = 0; owned < span.sampleCount; ) {
+    const n = Math.min(config.maxBlockSamples, span.sampleCount - owned);
+    const buffer = await sink.acquire();
+    const bytes = new Uint8Array(buffer);
+    bytes.set(tail.subarray(0, tailFrames * fb), 0);
+    const start = tailFrames * fb;
+    await readFully(handle, bytes, start, n * fb, spanStartByte + owned * fb, meta.path);
+    const fresh = bytes.subarray(start, start + n * fb);
+    hash.update(fresh);
+    const length = start + n * fb;
+    const keepFrames = Math.min(prefix, tailFrames + n);
+    tail.set(bytes.subarray(length - keepFrames * fb, length), 0);
+    sink.submit(buffer, length, tailFrames, owned);
+    tailFrames = keepFrames;
+    owned += n;
+    onProgress?.(spanStartByte + owned * fb, total);
+  }
+  await hashRange(handle, hash, spanEndByte, total, meta.path);
+  onProgress?.(total, total);
+  return hash.digest("hex");
+}
+
+async function hashRange(handle: FileHandle, hash: Hash, from: number, to: number, path: string): Promise<void> {
+  const chunk = new Uint8Array(Math.min(4 << 20, Math.max(to - from, 1)));
+  for (let pos = from; pos < to; ) {
+    const n = Math.min(chunk.length, to - pos);
+    await readFully(handle, chunk, 0, n, pos, path);
+    hash.update(chunk.subarray(0, n));
+    pos += n;
+  }
+}
+
+async function readFully(handle: FileHandle, into: Uint8Array, offset: number, length: number, position: number, path: string): Promise<void> {
+  let done = 0;
+  while (done < length) {
+    const { bytesRead } = await handle.read(into, offset + done, length - done, position + done);
+    if (bytesRead === 0) throw new CaptureFormatError(path, `file ended at byte ${position + done} while reading (it changed during the run?)`, position + done);
+    done += bytesRead;
+  }
+}
+
+/** Where blocks go: this thread, or a pool of workers. */
+interface BlockSink {
+  acquire(): Promise<ArrayBuffer>;
+  submit(buffer: ArrayBuffer, byteLength: number, prefixFrames: number, ownedStart: number): void;
+  finish(): Promise<{ psd: WelchPsd; spectrogram: Spectrogram; health: HealthFigures }>;
+  abort(): Promise<void>;
+}
+
+function blockBytes(config: Pass1Config): number {
+  return (config.maxBlockSamples + prefixSamples(config)) * formatInfo(config.format).frameBytes;
+}
+
+class InlineSink implements BlockSink {
+  private readonly engine: Pass1Engine;
+  private readonly buffer: ArrayBuffer;
+  constructor(config: Pass1Config) {
+    this.engine = new Pass1Engine(config);
+    this.buffer = new ArrayBuffer(blockBytes(config));
+  }
+  async acquire(): Promise<ArrayBuffer> {
+    return this.buffer;
+  }
+  submit(buffer: ArrayBuffer, byteLength: number, prefixFrames: number, ownedStart: number): void {
+    this.engine.processBlock(new Uint8Array(buffer, 0, byteLength), prefixFrames, ownedStart);
+  }
+  async finish(): Promise<{ psd: WelchPsd; spectrogram: Spectrogram; health: HealthFigures }> {
+    return this.engine.finish();
+  }
+  async abort(): Promise<void> {}
+}
+
+/**
+ * Blocks go to worker threads, each given the block with the fewest blocks in flight. Buffers
+ * come back with each "done" reply: a pool of 2 buffers a worker (+1 being filled) bounds memory.
+ */
+class WorkerSink implements BlockSink {
+  private readonly workers: Worker[] = [];
+  private readonly inFlight: number[] = [];
+  private readonly free: ArrayBuffer[] = [];
+  private readonly waiting: ((b: ArrayBuffer) => void)[] = [];
+  private failure: Error | null = null;
+  private readonly main: Pass1Engine;
+
+  constructor(config: Pass1Config, count: number) {
+    const bytes = blockBytes(config);
+    for (let k = 0; k < 2 * count + 1; k++) this.free.push(new ArrayBuffer(bytes));
+    this.main = new Pass1Engine(config);
+    for (let k = 0; k < count; k++) {
+      const worker = new Worker(WORKER_URL, { workerData: config });
+      worker.on("message", (reply: WorkerReply) => {
+        if (reply.type === "done") {
+          this.inFlight[k] = (this.inFlight[k] as number) - 1;
+          this.release(reply.buffer);
+        }
+      });
+      worker.on("error", (e) => {
+        this.failure = e instanceof Error ? e : new Error(String(e));
+        for (const w of this.waiting.splice(0)) w(new ArrayBuffer(0));
+      });
+      this.workers.push(worker);
+      this.inFlight.push(0);
+    }
+  }
+
+  private release(buffer: ArrayBuffer): void {
+    const next = this.waiting.shift();
+    if (next) next(buffer);
+    else this.free.push(buffer);
+  }
+
+  async acquire(): Promise<ArrayBuffer> {
+    if (this.failure) throw this.failure;
+    const b = this.free.pop();
+    const buffer = b ?? (await new Promise<ArrayBuffer>((resolve) => this.waiting.push(resolve)));
+    if (this.failure) throw this.failure;
+    return buffer;
+  }
+
+  submit(buffer: ArrayBuffer, byteLength: number, prefixFrames: number, ownedStart: number): void {
+    let k = 0;
+    for (let j = 1; j < this.workers.length; j++) if ((this.inFlight[j] as number) < (this.inFlight[k] as number)) k = j;
+    this.inFlight[k] = (this.inFlight[k] as number) + 1;
+    const request: WorkerRequest = { type: "block", buffer, byteLength, prefixFrames, ownedStart };
+    (this.workers[k] as Worker).postMessage(request, [buffer]);
+  }
+
+  async finish(): Promise<{ psd: WelchPsd; spectrogram: Spectrogram; health: HealthFigures }> {
+    try {
+      const states = await Promise.all(
+        this.workers.map(
+          (worker) =>
+            new Promise<WorkerReply & { type: "state" }>((resolve, reject) => {
+              worker.on("message", (reply: WorkerReply) => {
+                if (reply.type === "state") resolve(reply);
+              });
+              worker.once("error", reject);
+              const request: WorkerRequest = { type: "finish" };
+              worker.postMessage(request);
+            }),
+        ),
+      );
+      if (this.failure) throw this.failure;
+      for (const s of states) this.main.merge(s.state);
+      return this.main.finish();
+    } finally {
+      await this.abort();
+    }
+  }
+
+  async abort(): Promise<void> {
+    await Promise.all(this.workers.map((w) => w.terminate()));
+  }
+}

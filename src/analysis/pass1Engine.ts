@@ -1,0 +1,104 @@
+/**
+ * The per-block work of pass 1, the same in the main thread and in a worker: decode a block of
+ * raw bytes (with its overlap prefix), and feed the Welch, spectrogram and health accumulators.
+ * Engines are mergeable, so two of them can take alternate blocks and be summed at the end.
+ */
+import { decodeSamples, formatInfo } from "../capture/sampleFormat.js";
+import type { SampleFormat } from "../capture/source.js";
+import {
+  HealthAccumulator,
+  SpectrogramAccumulator,
+  WelchAccumulator,
+  type HealthFigures,
+  type Spectrogram,
+  type WelchPsd,
+} from "../dsp/index.js";
+
+/** Everything an engine needs to know; structured-cloneable so a worker can be given it. */
+export interface Pass1Config {
+  readonly format: SampleFormat;
+  readonly swapIq: boolean;
+  readonly sampleRateHz: number;
+  /** Samples in the analysed span. */
+  readonly totalSamples: number;
+  /** Welch segment length (nperseg = nfft) and overlap (noverlap), in samples. */
+  readonly welchFftLength: number;
+  readonly welchOverlapLength: number;
+  /** Spectrogram frame length (frames do not overlap) and the number of rows wanted. */
+  readonly spectrogramFftLength: number;
+  readonly spectrogramRows: number;
+  /** Largest block, in samples, not counting the prefix. */
+  readonly maxBlockSamples: number;
+}
+
+/** The overlap prefix every block carries: the longest frame of any accumulator. */
+export function prefixSamples(config: Pass1Config): number {
+  return Math.max(config.welchFftLength, config.spectrogramFftLength);
+}
+
+export interface Pass1EngineState {
+  readonly welch: ReturnType<WelchAccumulator["snapshot"]>;
+  readonly spectrogram: ReturnType<SpectrogramAccumulator["snapshot"]>;
+  readonly health: ReturnType<HealthAccumulator["snapshot"]>;
+}
+
+export class Pass1Engine {
+  private readonly welch: WelchAccumulator;
+  private readonly spectrogram: SpectrogramAccumulator;
+  private readonly health: HealthAccumulator;
+  private readonly decoded: Float32Array;
+  private readonly frameBytes: number;
+
+  constructor(private readonly config: Pass1Config) {
+    this.welch = new WelchAccumulator({
+      fftLength: config.welchFftLength,
+      overlapLength: config.welchOverlapLength,
+      sampleRateHz: config.sampleRateHz,
+    });
+    this.spectrogram = new SpectrogramAccumulator({
+      fftLength: config.spectrogramFftLength,
+      rowCount: config.spectrogramRows,
+      totalSamples: config.totalSamples,
+      sampleRateHz: config.sampleRateHz,
+    });
+    this.health = new HealthAccumulator();
+    this.frameBytes = formatInfo(config.format).frameBytes;
+    this.decoded = new Float32Array(2 * (config.maxBlockSamples + prefixSamples(config)));
+  }
+
+  /**
+   * Processes one block: `raw` holds `prefixFrames` frames that precede the block's own samples
+   * (already counted by the previous block) and then the block's own frames, whose first sample
+   * has span index `ownedStart`.
+   */
+  processBlock(raw: Uint8Array, prefixFrames: number, ownedStart: number): void {
+    const prefixBytes = prefixFrames * this.frameBytes;
+    const { format, swapIq } = this.config;
+    const head = decodeSamples(format, raw.subarray(0, prefixBytes), this.decoded, swapIq);
+    const own = decodeSamples(format, raw.subarray(prefixBytes), this.decoded.subarray(2 * head.frames), swapIq);
+    const iq = this.decoded.subarray(0, 2 * (head.frames + own.frames));
+    const dataStart = ownedStart - head.frames;
+    this.health.addDecodeCounts(own);
+    this.health.push(iq, dataStart, ownedStart);
+    this.welch.push(iq, dataStart, ownedStart);
+    this.spectrogram.push(iq, dataStart, ownedStart);
+  }
+
+  snapshot(): Pass1EngineState {
+    return {
+      welch: this.welch.snapshot(),
+      spectrogram: this.spectrogram.snapshot(),
+      health: this.health.snapshot(),
+    };
+  }
+
+  merge(state: Pass1EngineState): void {
+    this.welch.merge(state.welch);
+    this.spectrogram.merge(state.spectrogram);
+    this.health.merge(state.health);
+  }
+
+  finish(): { psd: WelchPsd; spectrogram: Spectrogram; health: HealthFigures } {
+    return { psd: this.welch.finish(), spectrogram: this.spectrogram.finish(), health: this.health.finish() };
+  }
+}

@@ -1,0 +1,56 @@
+/**
+ * One benchmark run in its own process, so that its peak RSS is its own: pass 1 of a capture,
+ * or the raw read of it, or its FFTs alone. Prints one JSON line.
+ */
+import { open } from "node:fs/promises";
+import { openCapture, resolveSpan } from "../capture/index.js";
+import { runPass1 } from "../analysis/index.js";
+import { fftPlan } from "../dsp/index.js";
+
+async function main(): Promise<void> {
+  const [mode, path, workersText] = process.argv.slice(2) as [string, string, string | undefined];
+  const started = process.hrtime.bigint();
+  let samples = 0;
+  if (mode === "pass1") {
+    const source = await openCapture(path, {});
+    const { span } = resolveSpan(source.meta);
+    await source.close();
+    samples = span.sampleCount;
+    await runPass1(source.meta, span, { workers: workersText === undefined ? "auto" : Number(workersText) });
+  } else if (mode === "read") {
+    const handle = await open(path, "r");
+    const buffer = new Uint8Array(8 << 20);
+    let bytes = 0;
+    for (;;) {
+      const { bytesRead } = await handle.read(buffer, 0, buffer.length, bytes);
+      if (bytesRead === 0) break;
+      bytes += bytesRead;
+    }
+    await handle.close();
+    samples = bytes / 8;
+  } else if (mode === "fft") {
+    // The same transforms as pass 1 of `samples` samples: Welch 4096 at 50 % overlap and
+    // spectrogram frames of 1024 without overlap, single thread.
+    samples = Number(path);
+    const welch = fftPlan(4096);
+    const rows = fftPlan(1024);
+    const a = welch.createBuffer();
+    const b = welch.createBuffer();
+    const c = rows.createBuffer();
+    const d = rows.createBuffer();
+    for (let k = 0; k < a.length; k++) a[k] = Math.sin(k);
+    for (let k = 0; k < c.length; k++) c[k] = Math.cos(k);
+    const welchCount = Math.floor((samples - 4096) / 2048) + 1;
+    const rowCount = Math.floor(samples / 1024);
+    for (let k = 0; k < welchCount; k++) welch.forward(b, a);
+    for (let k = 0; k < rowCount; k++) rows.forward(d, c);
+  }
+  const seconds = Number(process.hrtime.bigint() - started) / 1e9;
+  const maxRssMiB = process.resourceUsage().maxRSS / 1024;
+  process.stdout.write(`${JSON.stringify({ mode, samples, seconds, maxRssMiB })}\n`);
+}
+
+main().catch((e: unknown) => {
+  process.stderr.write(`${e instanceof Error ? (e.stack ?? e.message) : String(e)}\n`);
+  process.exitCode = 1;
+});

@@ -1,0 +1,60 @@
+/**
+ * `npm run bench`: pass-1 throughput on cf32 captures of 256 MiB and 1 GiB (generated outside the
+ * repository and reused), beside the raw read rate of the same file and the FFT-only rate of the
+ * same transforms, with peak RSS of each run (each run is its own process). Not a test: numbers
+ * for a person to read. Targets (1 GiB, this 2-core machine): pass 1 ≥ 25 MS/s, RSS ≤ 150 MiB.
+ */
+import { execFileSync } from "node:child_process";
+import { fileURLToPath } from "node:url";
+import { benchCapture, benchDir } from "./benchData.js";
+
+interface RunResult {
+  readonly mode: string;
+  readonly samples: number;
+  readonly seconds: number;
+  readonly maxRssMiB: number;
+}
+
+const CHILD = fileURLToPath(new URL("./pass1Child.js", import.meta.url));
+
+function run(...args: string[]): RunResult {
+  const out = execFileSync(process.execPath, [CHILD, ...args], { encoding: "utf8", stdio: ["ignore", "pipe", "inherit"] });
+  return JSON.parse(out.trim().split("\n").pop() as string) as RunResult;
+}
+
+function msps(r: RunResult): number {
+  return r.samples / r.seconds / 1e6;
+}
+
+async function main(): Promise<void> {
+  const sizes = (process.env.IQAUDIT_BENCH_SIZES ?? "256,1024").split(",").map(Number);
+  process.stdout.write(`iqaudit benchmark: pass 1 (Welch 4096 @ 50 %, spectrogram 1024, health, SHA-256)\ncaptures in ${benchDir()}\n\n`);
+  const rows: string[] = [];
+  for (const mib of sizes) {
+    process.stderr.write(`preparing ${mib} MiB capture...\n`);
+    const path = await benchCapture(mib);
+    const read = run("read", path);
+    const fft = run("fft", String(read.samples));
+    const pass1 = run("pass1", path);
+    const pass1Inline = run("pass1", path, "0");
+    rows.push(
+      [
+        `${mib} MiB cf32 (${(read.samples / 1e6).toFixed(1)} MS)`,
+        `  raw read            ${msps(read).toFixed(1).padStart(7)} MS/s  ${read.seconds.toFixed(2)} s  RSS ${read.maxRssMiB.toFixed(0)} MiB`,
+        `  FFTs only, 1 thread ${msps(fft).toFixed(1).padStart(7)} MS/s  ${fft.seconds.toFixed(2)} s`,
+        `  pass 1, 1 thread    ${msps(pass1Inline).toFixed(1).padStart(7)} MS/s  ${pass1Inline.seconds.toFixed(2)} s  RSS ${pass1Inline.maxRssMiB.toFixed(0)} MiB`,
+        `  pass 1, auto        ${msps(pass1).toFixed(1).padStart(7)} MS/s  ${pass1.seconds.toFixed(2)} s  RSS ${pass1.maxRssMiB.toFixed(0)} MiB`,
+        `  ratios: pass1/read ${(msps(pass1) / msps(read)).toFixed(3)}, pass1/FFT-only ${(msps(pass1) / msps(fft)).toFixed(2)}, ` +
+          `auto/1-thread ${(msps(pass1) / msps(pass1Inline)).toFixed(2)}`,
+        "",
+      ].join("\n"),
+    );
+    process.stdout.write(`${rows[rows.length - 1]}\n`);
+  }
+  process.stdout.write("targets (1 GiB on 2 cores): pass 1 >= 25 MS/s, peak RSS <= 150 MiB, RSS of 256 MiB within a few MiB of 1 GiB\n");
+}
+
+main().catch((e: unknown) => {
+  process.stderr.write(`${e instanceof Error ? (e.stack ?? e.message) : String(e)}\n`);
+  process.exitCode = 1;
+});

@@ -1,0 +1,197 @@
+#!/usr/bin/env node
+/**
+ * Command-line wiring only (commander): every command is a function in src/commands/ that the
+ * tests call directly too. This file alone turns an IqauditError into exit code 2 and one line
+ * on stderr, `iqaudit: <subject>: <problem>`; any other exception is a bug and keeps its stack.
+ */
+import { Command, CommanderError, Option } from "commander";
+import { isIqauditError, UsageError } from "./errors.js";
+import { TOOL_VERSION } from "./version.js";
+import { addCaptureOptions, captureArgs, type RawCaptureFlags } from "./cli/captureOptions.js";
+import { parseCount, parseFftLength, parseQuantity } from "./cli/quantity.js";
+import { createProgress } from "./cli/progress.js";
+import { CAUTIONS } from "./cli/cautions.js";
+import { inspectCommand } from "./commands/inspect.js";
+import { spectrogramCommand, SPECTROGRAM_DEFAULTS } from "./commands/spectrogram.js";
+import { demoCommand } from "./commands/demo.js";
+import { inspectText } from "./report/inspectText.js";
+
+interface GlobalFlags {
+  quiet?: boolean;
+}
+
+function warn(lines: readonly string[]): void {
+  for (const line of lines) process.stderr.write(`iqaudit: warning: ${line}\n`);
+}
+
+function program(): Command {
+  const root = new Command("iqaudit")
+    .description(
+      "Measure radio emissions from IQ captures (raw cu8/ci8/ci16/cf32/cf64, WAV incl. RF64, SigMF): " +
+        "what the file is and whether it is healthy, and its spectrogram. Licence checks, triage of unknown " +
+        "emissions and archived reports follow in later versions.",
+    )
+    .version(TOOL_VERSION, "-V, --version", "print the version")
+    .option("-q, --quiet", "no progress display on stderr (warnings are still shown)")
+    .helpOption("-h, --help", "explain a command: iqaudit <command> --help")
+    .addHelpText("after", `\nExamples\n  iqaudit demo\n  iqaudit inspect capture.cf32 --rate 2.4M --center 156.8M\n  iqaudit spectrogram survey.sigmf-meta -o survey.png\n\n${CAUTIONS}\n`);
+  const quiet = (): boolean => (root.opts() as GlobalFlags).quiet === true;
+
+  addCaptureOptions(
+    root
+      .command("inspect")
+      .argument("<capture>", "capture file (.cu8 .cs8 .cs16 .cf32 .cf64 raw, .wav, .sigmf-meta or .sigmf-data)")
+      .description("what the file is and whether it is healthy: format, rate, duration, centre, clipping, DC offset, IQ imbalance, noise floor, strongest line"),
+  )
+    .option("--json", "print the report as one JSON document on stdout (schema iqaudit/inspect/1)")
+    .option("--fft <n>", "Welch segment length for the PSD, a power of two", "4096")
+    .addHelpText("after", "\nFigures and methods: docs/methods.md. Results are indicative; see iqaudit --help for cautions.")
+    .action(async (path: string, flags: RawCaptureFlags & { json?: boolean; fft: string }) => {
+      const progress = createProgress(`inspect ${path}`, !quiet());
+      const report = await inspectCommand(path, {
+        capture: captureArgs(flags),
+        pass1: { welchFftLength: parseFftLength("--fft", flags.fft), onProgress: progress.onProgress },
+      });
+      progress.done();
+      warn(report.warnings);
+      process.stdout.write(flags.json === true ? `${JSON.stringify(report, null, 2)}\n` : inspectText(report));
+    });
+
+  addCaptureOptions(
+    root
+      .command("spectrogram")
+      .argument("<capture>", "capture file")
+      .description("write a spectrogram PNG: frequency across, time down, dBFS/Hz colour bar, axes and title"),
+  )
+    .requiredOption("-o, --output <file.png>", "the PNG to write (written to a temporary name, then renamed)")
+    .option("--fft <n>", "FFT length of each frame, a power of two", String(SPECTROGRAM_DEFAULTS.fftLength))
+    .option("--rows <n>", "number of time rows, whatever the duration", String(SPECTROGRAM_DEFAULTS.rows))
+    .option("--size <WxH>", "image size in pixels", `${SPECTROGRAM_DEFAULTS.widthPx}x${SPECTROGRAM_DEFAULTS.heightPx}`)
+    .option("--db-range <min:max>", "colour scale in dBFS/Hz, e.g. -150:-90 (default: from the noise floor to the peak)")
+    .addOption(new Option("--reduce <how>", "combine the frames of a row by their mean or their maximum").choices(["mean", "max"]).default("mean"))
+    .option("--json", "print a JSON summary of what was written on stdout")
+    .addHelpText("after", "\nResults are indicative; see iqaudit --help for cautions.")
+    .action(
+      async (
+        path: string,
+        flags: RawCaptureFlags & { output: string; fft: string; rows: string; size: string; dbRange?: string; reduce: "mean" | "max"; json?: boolean },
+      ) => {
+        const [widthPx, heightPx] = parseSize(flags.size);
+        const progress = createProgress(`spectrogram ${path}`, !quiet());
+        const summary = await spectrogramCommand(path, {
+          capture: captureArgs(flags),
+          outputPath: flags.output,
+          fftLength: parseFftLength("--fft", flags.fft),
+          rows: parseCount("--rows", flags.rows),
+          widthPx,
+          heightPx,
+          dbRange: flags.dbRange === undefined ? undefined : parseDbRange(flags.dbRange),
+          reduce: flags.reduce,
+          pass1: { onProgress: progress.onProgress },
+        });
+        progress.done();
+        warn(summary.warnings);
+        if (flags.json === true) process.stdout.write(`${JSON.stringify(summary, null, 2)}\n`);
+      },
+    );
+
+  root
+    .command("demo")
+    .description("write the bundled sample scenario's captures (if missing) and run the tool on them")
+    .option("--out <dir>", "where to write the captures and results", "iqaudit-demo")
+    .action(async (flags: { out: string }) => {
+      const summary = await demoCommand({ outDir: flags.out, progress: (label) => createProgress(label, !quiet()) });
+      warn(summary.warnings);
+      process.stdout.write(summary.text);
+    });
+  return root;
+}
+
+function parseSize(text: string): [number, number] {
+  const m = /^(\d+)x(\d+)$/i.exec(text.trim());
+  if (m === null) throw new UsageError("--size", `'${text}' is not WIDTHxHEIGHT in pixels, e.g. 1200x800`);
+  const w = Number(m[1]);
+  const h = Number(m[2]);
+  if (w < 480 || h < 320 || w > 10000 || h > 10000) throw new UsageError("--size", `${text} must be between 480x320 and 10000x10000`);
+  return [w, h];
+}
+
+function parseDbRange(text: string): { minDb: number; maxDb: number } {
+  const parts = text.split(":");
+  if (parts.length !== 2) throw new UsageError("--db-range", `'${text}' is not MIN:MAX in dB, e.g. -150:-90`);
+  const minDb = parseQuantity("--db-range", parts[0] as string, { unit: "none" });
+  const maxDb = parseQuantity("--db-range", parts[1] as string, { unit: "none" });
+  if (!(maxDb > minDb)) throw new UsageError("--db-range", `${text}: the maximum must be above the minimum`);
+  return { minDb, maxDb };
+}
+
+/** Commander's own messages ("error: unknown option '--x'") as one contract line. */
+function usageLine(e: CommanderError): string {
+  const text = e.message.replace(/^error:\s*/i, "").split("\n")[0] as string;
+  const quoted = /'([^']+)'/.exec(text);
+  const subject = quoted ? ((quoted[1] as string).split(" ")[0] as string) : "usage";
+  return `iqaudit: ${subject}: ${text} (see iqaudit --help)`;
+}
+
+function systemErrorLine(e: unknown): string | null {
+  if (typeof e === "object" && e !== null && "code" in e && "path" in e && typeof (e as { path: unknown }).path === "string") {
+    const { code, path } = e as { code: string; path: string };
+    const reason: Record<string, string> = {
+      ENOENT: "no such file or directory",
+      EACCES: "permission denied",
+      EISDIR: "is a directory",
+      ENOTDIR: "a part of the path is not a directory",
+      ENOSPC: "no space left on the device",
+      EROFS: "read-only file system",
+    };
+    return `iqaudit: ${path}: ${reason[code] ?? code}`;
+  }
+  return null;
+}
+
+export async function main(argv: readonly string[]): Promise<number> {
+  const cli = program();
+  cli.exitOverride();
+  cli.configureOutput({ outputError: () => undefined });
+  for (const c of cli.commands) {
+    c.exitOverride();
+    c.configureOutput({ outputError: () => undefined });
+  }
+  try {
+    await cli.parseAsync(argv as string[], { from: "node" });
+    return 0;
+  } catch (e) {
+    if (e instanceof CommanderError) {
+      if (e.exitCode === 0) return 0; // --help, --version
+      process.stderr.write(`${usageLine(e)}\n`);
+      return 2;
+    }
+    if (isIqauditError(e)) {
+      process.stderr.write(`iqaudit: ${e.message.split("\n")[0]}\n`);
+      return 2;
+    }
+    const line = systemErrorLine(e);
+    if (line !== null) {
+      process.stderr.write(`${line}\n`);
+      return 2;
+    }
+    process.stderr.write(`iqaudit: internal error (a bug; please report it with this trace):\n${e instanceof Error ? (e.stack ?? e.message) : String(e)}\n`);
+    return 70;
+  }
+}
+
+// A reader that stops early (`iqaudit inspect x | head`) is not an error of ours.
+process.stdout.on("error", (e: NodeJS.ErrnoException) => {
+  if (e.code === "EPIPE") process.exit(0);
+  throw e;
+});
+
+main(process.argv).then(
+  (code) => {
+    process.exitCode = code;
+  },
+  (e: unknown) => {
+    process.stderr.write(`${String(e)}\n`);
+    process.exitCode = 70;
+  },
+);

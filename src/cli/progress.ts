@@ -1,0 +1,39 @@
+/**
+ * Progress on stderr for long runs, only when stderr is a terminal and --quiet is not given
+ * (interface.md: stdout carries nothing but the requested output). One line, rewritten in place.
+ */
+import { formatBytes } from "../report/format.js";
+
+export interface Progress {
+  readonly onProgress: ((doneBytes: number, totalBytes: number) => void) | undefined;
+  done(): void;
+}
+
+export function createProgress(label: string, enabled: boolean, stream: NodeJS.WriteStream = process.stderr): Progress {
+  if (!enabled || !stream.isTTY) return { onProgress: undefined, done: () => undefined };
+  const started = Date.now();
+  let lastDraw = 0;
+  let drawn = false;
+  return {
+    onProgress(doneBytes, totalBytes) {
+      const now = Date.now();
+      if (now - lastDraw < 200 && doneBytes < totalBytes) return;
+      lastDraw = now;
+      const fraction = totalBytes > 0 ? doneBytes / totalBytes : 1;
+      const seconds = (now - started) / 1000;
+      const rate = seconds > 0 ? doneBytes / seconds : 0;
+      const eta = rate > 0 ? (totalBytes - doneBytes) / rate : 0;
+      const barWidth = 24;
+      const filled = Math.round(fraction * barWidth);
+      const bar = "#".repeat(filled) + ".".repeat(barWidth - filled);
+      stream.write(
+        `\r${label} [${bar}] ${(fraction * 100).toFixed(0).padStart(3)} %  ${formatBytes(doneBytes)} of ${formatBytes(totalBytes)}` +
+          `  ${formatBytes(rate)}/s  ${eta.toFixed(0)} s left \x1b[K`,
+      );
+      drawn = true;
+    },
+    done() {
+      if (drawn) stream.write("\r\x1b[K");
+    },
+  };
+}

@@ -1,0 +1,47 @@
+/**
+ * The first steps every analysing command shares: open the capture with the user's options,
+ * resolve the span to analyse, and run pass 1 over it.
+ */
+import { openCapture, resolveSpan, type CaptureMeta, type CaptureOptions, type SampleSpan } from "../capture/index.js";
+import { runPass1, type Pass1Options, type Pass1Result } from "../analysis/index.js";
+
+/** Capture options of the contract, already parsed into numbers. */
+export interface CaptureArgs extends CaptureOptions {
+  readonly startS?: number | undefined;
+  readonly durationS?: number | undefined;
+}
+
+export interface AnalysedCapture {
+  readonly meta: CaptureMeta;
+  readonly span: SampleSpan;
+  readonly pass1: Pass1Result;
+  /** Reader, span and pass-1 warnings, in that order. */
+  readonly warnings: readonly string[];
+}
+
+export async function analyseCapture(path: string, args: CaptureArgs, pass1: Pass1Options = {}): Promise<AnalysedCapture> {
+  const source = await openCapture(path, args);
+  try {
+    const meta = source.meta;
+    const { span, warnings: spanWarnings } = resolveSpan(meta, args.startS, args.durationS);
+    const result = await runPass1(meta, span, pass1);
+    return { meta, span, pass1: result, warnings: [...meta.warnings, ...spanWarnings, ...result.warnings, ...healthWarnings(result)] };
+  } finally {
+    await source.close();
+  }
+}
+
+/** Health findings a user must not miss, as warnings beside the figures. */
+function healthWarnings(result: Pass1Result): string[] {
+  const h = result.health;
+  const out: string[] = [];
+  if (h.nonFiniteSamples > 0) {
+    out.push(`${h.nonFiniteSamples} samples with a NaN or infinite component were counted and read as 0`);
+  }
+  // Common practice: any clipping distorts the spectrum (intermodulation, spurious lines); above
+  // about 0.01 % of components it is worth a warning.
+  if (h.clippingPercent > 0.01) {
+    out.push(`${h.clippingPercent.toFixed(3)} % of components are at full scale: the receiver was overloaded; reduce its gain or add attenuation`);
+  }
+  return out;
+}

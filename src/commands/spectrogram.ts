@@ -1,0 +1,59 @@
+/** `iqaudit spectrogram <capture> -o out.png`: the picture, written atomically. */
+import { basename } from "node:path";
+import { analyseCapture, type CaptureArgs } from "./analyseCapture.js";
+import { spectrogramFigure } from "../report/spectrogramFigure.js";
+import { writeFileAtomic } from "../report/index.js";
+import type { Pass1Options } from "../analysis/index.js";
+
+export interface SpectrogramOptions {
+  readonly capture: CaptureArgs;
+  readonly outputPath: string;
+  /** Frame length of the spectrogram rows, samples (default 1024). */
+  readonly fftLength?: number | undefined;
+  readonly rows?: number | undefined;
+  readonly widthPx?: number | undefined;
+  readonly heightPx?: number | undefined;
+  readonly dbRange?: { readonly minDb: number; readonly maxDb: number } | undefined;
+  /** How the frames of a row are combined: their mean (default) or their maximum. */
+  readonly reduce?: "mean" | "max" | undefined;
+  readonly pass1?: Pass1Options | undefined;
+}
+
+export interface SpectrogramSummary {
+  readonly outputPath: string;
+  readonly widthPx: number;
+  readonly heightPx: number;
+  readonly rows: number;
+  readonly fftLength: number;
+  readonly dbRange: { readonly minDb: number; readonly maxDb: number };
+  readonly sha256: string;
+  readonly warnings: readonly string[];
+}
+
+export const SPECTROGRAM_DEFAULTS = { fftLength: 1024, rows: 1000, widthPx: 1200, heightPx: 800, reduce: "mean" } as const;
+
+export async function spectrogramCommand(path: string, options: SpectrogramOptions): Promise<SpectrogramSummary> {
+  const a = await analyseCapture(path, options.capture, {
+    ...options.pass1,
+    spectrogramFftLength: options.fftLength ?? SPECTROGRAM_DEFAULTS.fftLength,
+    spectrogramRows: options.rows ?? SPECTROGRAM_DEFAULTS.rows,
+  });
+  const figure = spectrogramFigure(a, {
+    title: basename(path),
+    widthPx: options.widthPx ?? SPECTROGRAM_DEFAULTS.widthPx,
+    heightPx: options.heightPx ?? SPECTROGRAM_DEFAULTS.heightPx,
+    dbRange: options.dbRange,
+    reduce: options.reduce ?? SPECTROGRAM_DEFAULTS.reduce,
+  });
+  await writeFileAtomic(options.outputPath, figure.png);
+  return {
+    outputPath: options.outputPath,
+    widthPx: options.widthPx ?? SPECTROGRAM_DEFAULTS.widthPx,
+    heightPx: options.heightPx ?? SPECTROGRAM_DEFAULTS.heightPx,
+    rows: a.pass1.spectrogram.rowCount,
+    fftLength: a.pass1.spectrogram.fftLength,
+    dbRange: figure.dbRange,
+    sha256: a.pass1.sha256,
+    warnings: a.warnings,
+  };
+}

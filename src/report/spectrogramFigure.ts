@@ -1,0 +1,61 @@
+/**
+ * Turns pass 1's spectrogram rows into the figure: dB values (dBFS/Hz), axes from the capture's
+ * rate, centre and span, and a title line that says how it was made.
+ */
+import type { AnalysedCapture } from "../commands/analyseCapture.js";
+import { powerToDb } from "../dsp/index.js";
+import { autoDbRange, renderSpectrogram } from "../render/index.js";
+import { formatHz, formatRate } from "./format.js";
+
+export interface SpectrogramFigureOptions {
+  readonly title: string;
+  readonly widthPx: number;
+  readonly heightPx: number;
+  readonly dbRange?: { readonly minDb: number; readonly maxDb: number } | undefined;
+  readonly reduce: "mean" | "max";
+}
+
+export function spectrogramFigure(
+  a: AnalysedCapture,
+  options: SpectrogramFigureOptions,
+): { png: Buffer; dbRange: { minDb: number; maxDb: number } } {
+  const s = a.pass1.spectrogram;
+  const source = options.reduce === "max" ? s.maxPerHz : s.meanPerHz;
+  const valuesDb = new Float32Array(source.length);
+  for (let k = 0; k < source.length; k++) valuesDb[k] = powerToDb(source[k] as number);
+  const dbRange = options.dbRange ?? autoDbRange(valuesDb, a.pass1.noiseFloor.dbfsPerHz);
+  const fs = a.meta.sampleRateHz;
+  const t0 = a.span.startSample / fs;
+  let fewest = Number.POSITIVE_INFINITY;
+  let most = 0;
+  for (const f of s.framesPerRow) {
+    fewest = Math.min(fewest, f);
+    most = Math.max(most, f);
+  }
+  const perRow = fewest === most ? `${most} frame${most === 1 ? "" : "s"}` : `${fewest}–${most} frames`;
+  const rbw = s.binWidthHz * 1.5; // Hann ENBW, 1.5 bins (Harris 1978, Table 1)
+  const subtitle = [
+    formatRate(fs),
+    a.meta.centerHz === null ? "centre unknown" : `centre ${formatHz(a.meta.centerHz)}`,
+    `FFT ${s.fftLength} Hann`,
+    `RBW ${formatHz(rbw)}`,
+    `${s.rowCount} rows, each the ${options.reduce} of ${perRow}`,
+  ].join(" · ");
+  const figure = renderSpectrogram({
+    rows: s.rowCount,
+    bins: s.fftLength,
+    valuesDb,
+    frequencyStartHz: -fs / 2 - s.binWidthHz / 2,
+    frequencyStopHz: fs / 2 - s.binWidthHz / 2,
+    centerHz: a.meta.centerHz,
+    timeStartS: t0 + (s.rowStartS[0] ?? 0),
+    timeStopS: t0 + (s.rowStopS[s.rowCount - 1] ?? a.span.sampleCount / fs),
+    dbRange,
+    unitLabel: "dBFS/Hz",
+    title: options.title,
+    subtitle,
+    widthPx: options.widthPx,
+    heightPx: options.heightPx,
+  });
+  return { png: figure.png, dbRange };
+}
