@@ -58,7 +58,10 @@ export function buildAxis(request: AxisRequest): Axis {
   let step = niceNumber((max - min) / MAX_TICKS, false);
   let ticks: AxisTick[] = [];
   for (let attempt = 0; attempt < 40; attempt++, step = nextNiceStep(step)) {
-    ticks = ticksWithStep(min, max, step).values.map((value) => ({ value, label: formatTickLabel(value, step, scale) }));
+    const candidate = ticksWithStep(min, max, step).values.map((value) => ({ value, label: formatTickLabel(value, step, scale) }));
+    // Never trade two or more ticks for one.
+    if (candidate.length < 2 && ticks.length >= 2) break;
+    ticks = candidate;
     const stepPx = (step / (max - min)) * lengthPx;
     const neededPx = horizontal
       ? Math.max(...ticks.map((t) => textWidthPx(t.label, textScale))) + 2 * FONT_METRICS.advancePx * textScale

@@ -25,13 +25,21 @@ export interface Ticks {
 /**
  * Ticks for the fixed range [min, max] aiming at about `targetCount` of them. The step is
  * Heckbert's: niceNumber(niceNumber(max − min, false) / (targetCount − 1), true); the values
- * are the multiples of it inside the range (the axis is not widened to the ticks).
+ * are the multiples of it inside the range (the axis is not widened to the ticks), and the step
+ * is made finer when that leaves fewer than two.
  */
 export function niceTicks(min: number, max: number, targetCount: number): Ticks {
   if (!Number.isFinite(min) || !Number.isFinite(max) || !(max > min)) throw new RangeError(`niceTicks: range [${min}, ${max}] must be finite with max > min`);
   if (!(targetCount >= 2)) throw new RangeError(`niceTicks: targetCount ${targetCount} must be at least 2`);
-  const step = niceNumber(niceNumber(max - min, false) / (Math.floor(targetCount) - 1), true);
-  return ticksWithStep(min, max, step);
+  let step = niceNumber(niceNumber(max - min, false) / (Math.floor(targetCount) - 1), true);
+  let ticks = ticksWithStep(min, max, step);
+  // Heckbert widens the axis to its ticks; ours is fixed, so a step up to 5× the range can leave
+  // fewer than two ticks inside it. Step down the 1-2-5 sequence until there are two.
+  while (ticks.values.length < 2) {
+    step = previousNiceStep(step);
+    ticks = ticksWithStep(min, max, step);
+  }
+  return ticks;
 }
 
 /** The multiples of `step` (> 0) inside [min, max], ascending, rounded to the step's precision. */
@@ -49,6 +57,12 @@ export function nextNiceStep(step: number): number {
   const power = Math.pow(10, Math.floor(Math.log10(step) + 1e-9));
   const f = Math.round(step / power);
   return (f < 2 ? 2 : f < 5 ? 5 : 10) * power;
+}
+
+function previousNiceStep(step: number): number {
+  const power = Math.pow(10, Math.floor(Math.log10(step) + 1e-9));
+  const f = Math.round(step / power);
+  return f >= 5 ? 2 * power : f >= 2 ? power : 0.5 * power;
 }
 
 // k·step in floating point gives 0.30000000000000004; round it to the step's precision.
