@@ -27,6 +27,9 @@ export interface SpectrogramSummary {
   readonly fftLength: number;
   readonly dbRange: { readonly minDb: number; readonly maxDb: number };
   readonly sha256: string;
+  /** The plot area in image pixels, and the offsets (Hz) of its left and right edges. */
+  readonly plot: { readonly x: number; readonly y: number; readonly width: number; readonly height: number };
+  readonly frequencySpanHz: readonly [number, number];
   readonly warnings: readonly string[];
 }
 
@@ -54,6 +57,8 @@ export async function spectrogramCommand(path: string, options: SpectrogramOptio
     fftLength: a.pass1.spectrogram.fftLength,
     dbRange: figure.dbRange,
     sha256: a.pass1.sha256,
+    plot: figure.plot,
+    frequencySpanHz: figure.frequencySpanHz,
     warnings: a.warnings,
   };
 }

@@ -4,7 +4,7 @@
  */
 import type { AnalysedCapture } from "../commands/analyseCapture.js";
 import { powerToDb } from "../dsp/index.js";
-import { autoDbRange, renderSpectrogram } from "../render/index.js";
+import { autoDbRange, renderSpectrogram, type FigureLayout } from "../render/index.js";
 import { formatHz, formatRate } from "./format.js";
 
 export interface SpectrogramFigureOptions {
@@ -18,7 +18,7 @@ export interface SpectrogramFigureOptions {
 export function spectrogramFigure(
   a: AnalysedCapture,
   options: SpectrogramFigureOptions,
-): { png: Buffer; dbRange: { minDb: number; maxDb: number } } {
+): { png: Buffer; dbRange: { minDb: number; maxDb: number }; plot: FigureLayout["plot"]; frequencySpanHz: readonly [number, number] } {
   const s = a.pass1.spectrogram;
   const source = options.reduce === "max" ? s.maxPerHz : s.meanPerHz;
   const valuesDb = new Float32Array(source.length);
@@ -41,12 +41,14 @@ export function spectrogramFigure(
     `RBW ${formatHz(rbw)}`,
     `${s.rowCount} rows, each the ${options.reduce} of ${perRow}`,
   ].join(" · ");
+  const frequencyStartHz = -fs / 2 - s.binWidthHz / 2;
+  const frequencyStopHz = fs / 2 - s.binWidthHz / 2;
   const figure = renderSpectrogram({
     rows: s.rowCount,
     bins: s.fftLength,
     valuesDb,
-    frequencyStartHz: -fs / 2 - s.binWidthHz / 2,
-    frequencyStopHz: fs / 2 - s.binWidthHz / 2,
+    frequencyStartHz,
+    frequencyStopHz,
     centerHz: a.meta.centerHz,
     timeStartS: t0 + (s.rowStartS[0] ?? 0),
     timeStopS: t0 + (s.rowStopS[s.rowCount - 1] ?? a.span.sampleCount / fs),
@@ -57,5 +59,5 @@ export function spectrogramFigure(
     widthPx: options.widthPx,
     heightPx: options.heightPx,
   });
-  return { png: figure.png, dbRange };
+  return { png: figure.png, dbRange, plot: figure.layout.plot, frequencySpanHz: [frequencyStartHz, frequencyStopHz] };
 }
