@@ -46,8 +46,9 @@ function scaleFor(quantity: AxisQuantity, min: number, max: number): SiScale {
 
 /**
  * An axis with as many nice ticks (1, 2 or 5 × 10^k apart, as in Heckbert 1990) as fit, at
- * most 12, without their labels crowding: horizontal labels keep at least two character widths apart, vertical ones two
- * and a half line heights. Labels carry enough decimals to tell neighbours apart.
+ * most 12, without their labels crowding: horizontal labels keep at least two character
+ * widths apart, vertical ones two and a half line heights. Labels carry enough decimals to
+ * tell neighbours apart; the title is "name (unit)" with the SI prefix chosen for the range.
  */
 export function buildAxis(request: AxisRequest): Axis {
   const { min, max, quantity, lengthPx, textScale } = request;
