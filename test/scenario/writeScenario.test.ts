@@ -1,0 +1,122 @@
+import { createHash } from "node:crypto";
+import { mkdtemp, readdir, readFile, rm, stat } from "node:fs/promises";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import WavDecoder from "wav-decoder";
+import { decodeSamples } from "../../src/capture/index.js";
+import { SCENARIO_CAPTURES, writeScenario } from "../../src/scenario/index.js";
+import type { ScenarioFile } from "../../src/scenario/index.js";
+
+const sha256 = async (p: string) => createHash("sha256").update(await readFile(p)).digest("hex");
+const capture = (id: string) => SCENARIO_CAPTURES.find((c) => c.id === id)!;
+
+describe("writeScenario(dir)", () => {
+  let dirA = "";
+  let dirB = "";
+  let files: ScenarioFile[] = [];
+
+  beforeAll(async () => {
+    dirA = await mkdtemp(join(tmpdir(), "iqaudit-scenario-a-"));
+    dirB = await mkdtemp(join(tmpdir(), "iqaudit-scenario-b-"));
+    files = await writeScenario(dirA);
+    await writeScenario(dirB);
+  }, 120_000); // two full generations (~6.5 MB each); a limit, not a timing check
+
+  afterAll(async () => {
+    await rm(dirA, { recursive: true, force: true });
+    await rm(dirB, { recursive: true, force: true });
+  });
+
+  it("is deterministic: two runs write the same bytes", async () => {
+    const names = (await readdir(dirA)).sort();
+    expect(names).toEqual((await readdir(dirB)).sort());
+    for (const n of names) expect(await sha256(join(dirA, n))).toBe(await sha256(join(dirB, n)));
+  });
+
+  it("leaves no temporary files and writes samples × frame bytes for raw data", async () => {
+    const names = await readdir(dirA);
+    expect(names.some((n) => n.includes(".tmp-"))).toBe(false);
+    expect(names.length).toBe(5); // 3 single files and a SigMF pair
+    for (const f of files) {
+      const c = capture(f.captureId);
+      const frame = { cu8: 2, ci16_le: 4, cf32_le: 8 }[c.format as "cu8" | "ci16_le" | "cf32_le"];
+      if (f.container !== "wav") expect((await stat(f.dataPath)).size).toBe(c.sampleCount * frame);
+    }
+  });
+
+  it("keeps files of the right size on a second run", async () => {
+    const again = await writeScenario(dirA);
+    expect(again.map((f) => f.written)).toEqual([false, false, false, false]);
+  });
+
+  it("returns the flags a raw file needs (--format, --rate) and the centre", () => {
+    const survey = files.find((f) => f.captureId === "survey")!;
+    expect(survey.flags).toEqual(["--format", "cu8", "--rate", "1000000", "--center", "165200000"]);
+    expect(survey.path).toMatch(/_1Msps\.cu8$/);
+    const quay = files.find((f) => f.container === "sigmf")!;
+    expect(quay.path).toMatch(/\.sigmf-meta$/);
+    expect(quay.dataPath).toMatch(/\.sigmf-data$/);
+  });
+
+  it("survey (cu8): nothing clips, and the mean is the receiver's DC offset (zero-mean emissions and noise)", async () => {
+    const c = capture("survey");
+    const bytes = await readFile(files[0]!.dataPath);
+    const out = new Float32Array(2 * c.sampleCount);
+    const counts = decodeSamples("cu8", bytes, out);
+    expect(counts.clippedComponents).toBe(0);
+    let i = 0;
+    let q = 0;
+    for (let k = 0; k < c.sampleCount; k++) {
+      i += out[2 * k] as number;
+      q += out[2 * k + 1] as number;
+    }
+    // Noise σ per component ≈ 0.011 (−96 dBFS/Hz over 1 MHz) → spread of the mean 1e-5; the
+    // emissions, offset by ≥ 124 kHz, contribute < 1e-6. Tolerance 1e-4.
+    expect(Math.abs(i / c.sampleCount - c.receiver!.dcI)).toBeLessThan(1e-4);
+    expect(Math.abs(q / c.sampleCount - c.receiver!.dcQ)).toBeLessThan(1e-4);
+  });
+
+  it("launch (WAV, read by wav-decoder): 2 channels at 48 kHz, mean power = FM power A² + noise (constant envelope)", async () => {
+    const c = capture("launch");
+    const wav = await WavDecoder.decode(await readFile(files[1]!.path));
+    expect(wav.sampleRate).toBe(48_000);
+    expect(wav.channelData.length).toBe(2);
+    expect(wav.channelData[0].length).toBe(c.sampleCount);
+    let p = 0;
+    for (let k = 0; k < c.sampleCount; k++) p += wav.channelData[0][k] ** 2 + wav.channelData[1][k] ** 2;
+    const expected = 10 ** (c.emissions[0]!.powerDbfs / 10) + 10 ** (c.noiseDbfsPerHz / 10) * c.sampleRateHz;
+    // The cross term signal×noise averages to ~A·σ/√N ≈ 1e-6 of A²; 16-bit rounding adds 1e-10: 0.01 dB.
+    expect(Math.abs(10 * Math.log10(p / c.sampleCount / expected))).toBeLessThan(0.01);
+  });
+
+  it("pilot (cf32): mean power = FM power + noise, within 0.01 dB (constant envelope)", async () => {
+    const c = capture("pilot");
+    const bytes = await readFile(files[2]!.path);
+    const x = new Float32Array(bytes.buffer, bytes.byteOffset, bytes.byteLength / 4);
+    let p = 0;
+    for (const v of x) p += v * v;
+    const expected = 10 ** (c.emissions[0]!.powerDbfs / 10) + 10 ** (c.noiseDbfsPerHz / 10) * c.sampleRateHz;
+    expect(Math.abs(10 * Math.log10(p / c.sampleCount / expected))).toBeLessThan(0.01);
+  });
+
+  it("quay (SigMF): the metadata has the core fields of SigMF v1.2.x (REFERENCES.md §9)", async () => {
+    const c = capture("quay");
+    const meta = JSON.parse(await readFile(files[3]!.path, "utf8"));
+    expect(meta.global["core:datatype"]).toBe("ci16_le");
+    expect(meta.global["core:sample_rate"]).toBe(250_000);
+    expect(meta.global["core:version"]).toMatch(/^1\.2\.\d+$/);
+    expect(typeof meta.global["core:description"]).toBe("string");
+    expect(meta.captures[0]["core:sample_start"]).toBe(0);
+    expect(meta.captures[0]["core:frequency"]).toBe(c.centerHz);
+    // RFC 3339 with the Z offset only, as the schema requires.
+    expect(meta.captures[0]["core:datetime"]).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d(\.\d+)?Z$/);
+    expect(meta.annotations.length).toBe(c.emissions.length);
+    for (const a of meta.annotations) {
+      expect(a["core:sample_start"]).toBe(0);
+      expect(a["core:freq_lower_edge"]).toBeLessThan(a["core:freq_upper_edge"]);
+      expect(typeof a["core:label"]).toBe("string");
+    }
+    expect((await stat(files[3]!.dataPath)).size).toBe(c.sampleCount * 4);
+  });
+});
