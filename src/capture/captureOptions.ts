@@ -3,7 +3,7 @@
  * warning when a flag overrides a value found in the file's metadata.
  */
 import { UsageError } from "../errors.js";
-import type { SampleFormat } from "./source.js";
+import type { Origin, SampleFormat } from "./source.js";
 
 /** Every field optional; each comes from a CLI flag (named in brackets). */
 export interface CaptureOptions {
@@ -53,4 +53,24 @@ export function overrideWarning(flag: string, flagValue: string | number, source
   const f = typeof flagValue === "number" ? shortNumber(flagValue) : flagValue;
   const v = typeof fileValue === "number" ? shortNumber(fileValue) : fileValue;
   return `${flag} ${f} overrides the ${source} ${v}.`;
+}
+
+/**
+ * One metadata value: the flag's value when given (with a warning when the file says otherwise),
+ * else the value found in the file (with its origin), else null with origin "unknown".
+ * `foundLabel` names the file's value in the warning, e.g. "SigMF core:frequency".
+ */
+export function flagOrFound(
+  flag: string,
+  flagValue: number | undefined,
+  found: number | null,
+  foundOrigin: Origin,
+  foundLabel: string,
+  warnings: string[],
+): { value: number | null; origin: Origin } {
+  if (flagValue !== undefined) {
+    if (found !== null && found !== flagValue) warnings.push(overrideWarning(flag, flagValue, foundLabel, found));
+    return { value: flagValue, origin: "flag" };
+  }
+  return found === null ? { value: null, origin: "unknown" } : { value: found, origin: foundOrigin };
 }

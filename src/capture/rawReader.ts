@@ -4,7 +4,7 @@
  */
 import { UsageError } from "../errors.js";
 import type { CaptureOptions } from "./captureOptions.js";
-import { overrideWarning } from "./captureOptions.js";
+import { flagOrFound } from "./captureOptions.js";
 import { fileNameTokens } from "./fileName.js";
 import { countFrames } from "./frameCount.js";
 import type { CaptureMeta, Origin, SampleFormat } from "./source.js";
@@ -27,36 +27,14 @@ export function readRawMeta(
   const tokens = fileNameTokens(path);
   warnings.push(...tokens.warnings);
 
-  let sampleRateHz: number;
-  let rateOrigin: Origin;
-  if (options.sampleRateHz !== undefined) {
-    if (tokens.sampleRateHz !== null && tokens.sampleRateHz !== options.sampleRateHz) {
-      warnings.push(overrideWarning("--rate", options.sampleRateHz, "file-name rate", tokens.sampleRateHz));
-    }
-    sampleRateHz = options.sampleRateHz;
-    rateOrigin = "flag";
-  } else if (tokens.sampleRateHz !== null) {
-    sampleRateHz = tokens.sampleRateHz;
-    rateOrigin = "file-name";
-  } else {
+  const rate = flagOrFound("--rate", options.sampleRateHz, tokens.sampleRateHz, "file-name", "file-name rate", warnings);
+  if (rate.value === null) {
     throw new UsageError(
       "--rate",
       `is required for a raw file without metadata: ${path} has no rate in its name (a token such as _2.4Msps)`,
     );
   }
-
-  let centerHz: number | null = null;
-  let centerOrigin: Origin = "unknown";
-  if (options.centerHz !== undefined) {
-    if (tokens.centerHz !== null && tokens.centerHz !== options.centerHz) {
-      warnings.push(overrideWarning("--center", options.centerHz, "file-name centre frequency", tokens.centerHz));
-    }
-    centerHz = options.centerHz;
-    centerOrigin = "flag";
-  } else if (tokens.centerHz !== null) {
-    centerHz = tokens.centerHz;
-    centerOrigin = "file-name";
-  }
+  const centre = flagOrFound("--center", options.centerHz, tokens.centerHz, "file-name", "file-name centre frequency", warnings);
 
   const frames = countFrames(path, fileBytes, format);
   warnings.push(...frames.warnings);
@@ -68,8 +46,8 @@ export function readRawMeta(
     container: "raw",
     format,
     complex,
-    sampleRateHz,
-    centerHz,
+    sampleRateHz: rate.value,
+    centerHz: centre.value,
     ppm: options.ppm ?? 0,
     datetime: null,
     fileSamples: frames.fileSamples,
@@ -78,7 +56,7 @@ export function readRawMeta(
     fileBytes,
     trailingBytes: frames.trailingBytes,
     swapIq: options.swapIq === true && complex,
-    origin: { format: formatOrigin, sampleRateHz: rateOrigin, centerHz: centerOrigin },
+    origin: { format: formatOrigin, sampleRateHz: rate.origin, centerHz: centre.origin },
     warnings,
   };
 }

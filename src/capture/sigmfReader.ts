@@ -6,7 +6,7 @@
 import { readFile, stat } from "node:fs/promises";
 import { dirname, join } from "node:path";
 import { CaptureFormatError, UsageError } from "../errors.js";
-import { overrideWarning, type CaptureOptions } from "./captureOptions.js";
+import { flagOrFound, overrideWarning, type CaptureOptions } from "./captureOptions.js";
 import { formatInfo } from "./sampleFormat.js";
 import { countFrames } from "./frameCount.js";
 import { parseSigmfMeta, type SigmfRecording } from "./sigmf.js";
@@ -74,26 +74,9 @@ export function sigmfCaptureMeta(
   }
   if (complex && options.real === true) warnings.push(`--real is ignored: ${path} holds complex (IQ) samples.`);
 
-  let sampleRateHz: number;
-  let rateOrigin: Origin = "sigmf";
-  if (options.sampleRateHz !== undefined) {
-    if (recording.sampleRateHz !== null && recording.sampleRateHz !== options.sampleRateHz) {
-      warnings.push(overrideWarning("--rate", options.sampleRateHz, "SigMF core:sample_rate", recording.sampleRateHz));
-    }
-    sampleRateHz = options.sampleRateHz;
-    rateOrigin = "flag";
-  } else if (recording.sampleRateHz !== null) sampleRateHz = recording.sampleRateHz;
-  else throw new UsageError("--rate", `is required: ${metaPath} has no global core:sample_rate`);
-
-  let centerHz = recording.frequencyHz;
-  let centerOrigin: Origin = centerHz === null ? "unknown" : "sigmf";
-  if (options.centerHz !== undefined) {
-    if (centerHz !== null && centerHz !== options.centerHz) {
-      warnings.push(overrideWarning("--center", options.centerHz, "SigMF core:frequency", centerHz));
-    }
-    centerHz = options.centerHz;
-    centerOrigin = "flag";
-  }
+  const rate = flagOrFound("--rate", options.sampleRateHz, recording.sampleRateHz, "sigmf", "SigMF core:sample_rate", warnings);
+  if (rate.value === null) throw new UsageError("--rate", `is required: ${metaPath} has no global core:sample_rate`);
+  const centre = flagOrFound("--center", options.centerHz, recording.frequencyHz, "sigmf", "SigMF core:frequency", warnings);
 
   const sampleBytes = fileBytes - recording.headerBytes - recording.trailingBytes;
   if (sampleBytes < 0) {
@@ -111,8 +94,8 @@ export function sigmfCaptureMeta(
     container: "sigmf",
     format,
     complex,
-    sampleRateHz,
-    centerHz,
+    sampleRateHz: rate.value,
+    centerHz: centre.value,
     ppm: options.ppm ?? 0,
     datetime: recording.datetime,
     fileSamples: frames.fileSamples,
@@ -121,7 +104,7 @@ export function sigmfCaptureMeta(
     fileBytes,
     trailingBytes: frames.trailingBytes,
     swapIq: options.swapIq === true && complex,
-    origin: { format: formatOrigin, sampleRateHz: rateOrigin, centerHz: centerOrigin },
+    origin: { format: formatOrigin, sampleRateHz: rate.origin, centerHz: centre.origin },
     warnings,
   };
 }

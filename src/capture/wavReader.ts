@@ -7,12 +7,12 @@
 import type { FileHandle } from "node:fs/promises";
 import { CaptureFormatError } from "../errors.js";
 import type { CaptureOptions } from "./captureOptions.js";
-import { overrideWarning } from "./captureOptions.js";
+import { flagOrFound } from "./captureOptions.js";
 import { fileNameTokens } from "./fileName.js";
 import { countFrames } from "./frameCount.js";
 import { parseWavFmt, type WavFmt } from "./wavFmt.js";
 import { readBytesAt, walkWavChunks } from "./wavChunks.js";
-import type { CaptureMeta, Origin, SampleFormat } from "./source.js";
+import type { CaptureMeta, SampleFormat } from "./source.js";
 
 /**
  * The CaptureMeta of the WAV file `path`, open in `handle` and `fileBytes` long.
@@ -43,29 +43,13 @@ export async function readWavMeta(
   const complex = channelsToComplex(fmt, path, options, warnings);
   const format = wavSampleFormat(fmt, complex);
 
-  let sampleRateHz = fmt.sampleRateHz;
-  let rateOrigin: Origin = "wav-header";
-  if (options.sampleRateHz !== undefined) {
-    if (options.sampleRateHz !== fmt.sampleRateHz) {
-      warnings.push(overrideWarning("--rate", options.sampleRateHz, "WAV header rate", fmt.sampleRateHz));
-    }
-    sampleRateHz = options.sampleRateHz;
-    rateOrigin = "flag";
-  } else if (fmt.sampleRateHz === 0) {
+  const rate = flagOrFound("--rate", options.sampleRateHz, fmt.sampleRateHz, "wav-header", "WAV header rate", warnings);
+  if (rate.value === 0) {
     throw new CaptureFormatError(path, "has a sample rate of 0 in its fmt chunk; give the rate with --rate", fmtChunk.bodyOffsetBytes + 4);
   }
-
   const tokens = fileNameTokens(path);
-  let centerHz: number | null = null;
-  let centerOrigin: Origin = "unknown";
-  if (options.centerHz !== undefined) {
-    centerHz = options.centerHz;
-    centerOrigin = "flag";
-  } else if (tokens.centerHz !== null) {
-    centerHz = tokens.centerHz;
-    centerOrigin = "file-name";
-    warnings.push(...tokens.warnings);
-  }
+  warnings.push(...tokens.warnings);
+  const centre = flagOrFound("--center", options.centerHz, tokens.centerHz, "file-name", "file-name centre frequency", warnings);
 
   const frames = countFrames(path, data.sizeBytes, format, "the data chunk");
   warnings.push(...frames.warnings);
@@ -77,8 +61,8 @@ export async function readWavMeta(
     container: "wav",
     format,
     complex,
-    sampleRateHz,
-    centerHz,
+    sampleRateHz: rate.value as number,
+    centerHz: centre.value,
     ppm: options.ppm ?? 0,
     datetime: null,
     fileSamples: frames.fileSamples,
@@ -87,7 +71,7 @@ export async function readWavMeta(
     fileBytes,
     trailingBytes: frames.trailingBytes,
     swapIq,
-    origin: { format: "wav-header", sampleRateHz: rateOrigin, centerHz: centerOrigin },
+    origin: { format: "wav-header", sampleRateHz: rate.origin, centerHz: centre.origin },
     warnings,
   };
 }
