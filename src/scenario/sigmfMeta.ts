@@ -80,7 +80,6 @@ export function sigmfMetadata(capture: ScenarioCapture): object {
       "core:num_channels": 1,
       "core:description": `${SCENARIO_SITE} (invented scenario): ${capture.description}`,
       "core:recorder": "iqaudit sample scenario generator (synthetic)",
-      "core:license": "MIT",
     },
     captures: [
       {
