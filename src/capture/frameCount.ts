@@ -5,6 +5,7 @@ import { CaptureFormatError } from "../errors.js";
 import { formatInfo } from "./sampleFormat.js";
 import type { SampleFormat } from "./source.js";
 
+/** Whole frames in a byte run, and the partial frame after them. */
 export interface FrameCount {
   /** floor(dataBytes / frameBytes). */
   readonly fileSamples: number;

@@ -10,6 +10,7 @@
  */
 import type { SampleFormat } from "./source.js";
 
+/** A parsed SigMF datatype. */
 export interface SigmfDatatype {
   /** The datatype as written. */
   readonly text: string;

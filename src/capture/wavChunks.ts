@@ -12,6 +12,7 @@
 import type { FileHandle } from "node:fs/promises";
 import { CaptureFormatError } from "../errors.js";
 
+/** Where one chunk lies in the file. */
 export interface WavChunk {
   /** Four-character chunk id, e.g. "fmt ", "data", "LIST". */
   readonly id: string;
@@ -23,6 +24,7 @@ export interface WavChunk {
   readonly sizeBytes: number;
 }
 
+/** The chunk map of a WAVE file. */
 export interface WavLayout {
   readonly form: "RIFF" | "RF64" | "BW64";
   /** Every chunk in file order (ds64 included). */

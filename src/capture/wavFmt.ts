@@ -9,6 +9,7 @@
  */
 import { CaptureFormatError } from "../errors.js";
 
+/** The fields of a fmt chunk that decide how samples are decoded. */
 export interface WavFmt {
   /** The tag after resolving WAVE_FORMAT_EXTENSIBLE: 1 PCM or 3 IEEE float. */
   readonly encoding: "pcm" | "float";

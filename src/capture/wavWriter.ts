@@ -24,6 +24,7 @@ export type WavSampleFormat =
   | "cu8" | "ci16_le" | "ci24_le" | "ci32_le" | "cf32_le" | "cf64_le"
   | "ru8" | "ri16_le" | "ri24_le" | "ri32_le" | "rf32_le" | "rf64_le";
 
+/** Every WavSampleFormat, complex first. */
 export const WAV_SAMPLE_FORMATS: readonly WavSampleFormat[] = [
   "cu8", "ci16_le", "ci24_le", "ci32_le", "cf32_le", "cf64_le",
   "ru8", "ri16_le", "ri24_le", "ri32_le", "rf32_le", "rf64_le",
@@ -35,6 +36,7 @@ export interface WavChunkSpec {
   readonly data: Uint8Array;
 }
 
+/** What `encodeWav` writes: sample format, rate and container variant. */
 export interface WavSpec {
   /** A complex format gives 2 channels (I, Q); a real one gives 1 channel. */
   readonly format: SampleFormat;
@@ -54,6 +56,7 @@ const WAVE_FORMAT_EXTENSIBLE = 0xfffe;
 const GUID_TAIL = [0x00, 0x00, 0x10, 0x00, 0x80, 0x00, 0x00, 0xaa, 0x00, 0x38, 0x9b, 0x71];
 const UINT32_MAX = 0xffffffff;
 
+/** True when `s` names a sample format a WAV file can hold. */
 export function isWavSampleFormat(s: string): s is WavSampleFormat {
   return (WAV_SAMPLE_FORMATS as readonly string[]).includes(s);
 }
