@@ -129,10 +129,10 @@ describe("WelchAccumulator", () => {
     expect(one.segmentCount).toBe(Math.floor((total - 512) / 256) + 1);
     const parts = randomPartition(total, 3000, 22);
     const many = new WelchAccumulator(options);
-    pushBlocks([many], iq, parts, 512);
+    pushBlocks([many], iq, parts, 1024); // prefix P = 2L, as when a longer FFT shares the blocks
     const a = new WelchAccumulator(options);
     const b = new WelchAccumulator(options);
-    pushBlocks([a, b], iq, parts, 512);
+    pushBlocks([a, b], iq, parts, 1024);
     a.merge(structuredClone(b.snapshot()));
     for (const psd of [many.finish(), a.finish()]) {
       expect(psd.segmentCount).toBe(one.segmentCount);
