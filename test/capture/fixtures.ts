@@ -1,12 +1,15 @@
 // Shared helpers for the capture tests: a temp folder, a closed-form test signal, hand-built
 // RIFF chunks (written here byte by byte from the RIFF layout, not with our writer), and a
 // reader that collects every block of a source.
-import { mkdtempSync, writeFileSync } from "node:fs";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
+import { afterAll } from "vitest";
 import type { CaptureSource, SampleSpan } from "../../src/capture/index.js";
 
 export const dir = mkdtempSync(join(tmpdir(), "iqaudit-capture-"));
+// Each test file imports this module once (forks pool), so each removes its own folder.
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 /** Writes `bytes` to `name` in the temp folder and returns the path. */
 export function put(name: string, bytes: Uint8Array | string): string {
