@@ -75,8 +75,9 @@ describe("runPass1(meta, span)", () => {
 
   it("gives the same result in two worker threads as in one (compiled build; merging of accumulator states)", async () => {
     // Workers run the compiled worker script: import the built module, not the sources.
-    const built = (await import("../../dist/analysis/index.js")) as typeof import("../../src/analysis/index.js");
-    const cap = (await import("../../dist/capture/index.js")) as typeof import("../../src/capture/index.js");
+    const builtModule = (rel: string): Promise<unknown> => import(new URL(`../../dist/${rel}`, import.meta.url).href);
+    const built = (await builtModule("analysis/index.js")) as typeof import("../../src/analysis/index.js");
+    const cap = (await builtModule("capture/index.js")) as typeof import("../../src/capture/index.js");
     const rawPath = join(dir, "noise_1Msps.cf32");
     writeFileSync(rawPath, encodeSamples("cf32_le", capture(1_200_000, fs, -200_000, 0.1, 1e-4, 7)));
     const source = await cap.openCapture(rawPath, {});
