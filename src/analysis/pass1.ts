@@ -140,7 +140,12 @@ function chooseWorkers(requested: number | "auto" | undefined, samples: number, 
   return Math.max(0, Math.min(8, Math.floor(requested)));
 }
 
-/** Reads the file front to back: hashes every byte, hands the span's bytes to the sink in blocks. */
+/**
+ * Reads the file front to back: hashes every byte, hands the span's bytes to the sink in blocks.
+ * The read of the next block is started before the current one is handed on, so reading and
+ * computing overlap even in one thread. Each block buffer holds the samples at a fixed offset of
+ * `prefix` frames, preceded by the previous block's last frames (the overlap prefix).
+ */
 async function sweep(
   handle: FileHandle,
   meta: CaptureMeta,
@@ -156,24 +161,37 @@ async function sweep(
   const total = meta.fileBytes;
   await hashRange(handle, hash, 0, spanStartByte, meta.path);
   const prefix = prefixSamples(config);
+  const dataOffset = prefix * fb;
   const tail = new Uint8Array(prefix * fb);
   let tailFrames = 0;
-  for (let owned = 0; owned < span.sampleCount; ) {
+  const readBlock = async (owned: number): Promise<{ buffer: ArrayBuffer; owned: number; n: number }> => {
     const n = Math.min(config.maxBlockSamples, span.sampleCount - owned);
     const buffer = await sink.acquire();
-    const bytes = new Uint8Array(buffer);
-    bytes.set(tail.subarray(0, tailFrames * fb), 0);
-    const start = tailFrames * fb;
-    await readFully(handle, bytes, start, n * fb, spanStartByte + owned * fb, meta.path);
-    const fresh = bytes.subarray(start, start + n * fb);
-    hash.update(fresh);
-    const length = start + n * fb;
-    const keepFrames = Math.min(prefix, tailFrames + n);
-    tail.set(bytes.subarray(length - keepFrames * fb, length), 0);
-    sink.submit(buffer, length, tailFrames, owned);
-    tailFrames = keepFrames;
-    owned += n;
-    onProgress?.(spanStartByte + owned * fb, total);
+    await readFully(handle, new Uint8Array(buffer), dataOffset, n * fb, spanStartByte + owned * fb, meta.path);
+    return { buffer, owned, n };
+  };
+  let next: Promise<{ buffer: ArrayBuffer; owned: number; n: number }> | null = span.sampleCount > 0 ? readBlock(0) : null;
+  try {
+    while (next !== null) {
+      const { buffer, owned, n } = await next;
+      const end = owned + n;
+      next = end < span.sampleCount ? readBlock(end) : null;
+      // Let the next read reach the file system before this thread turns to computing.
+      if (next !== null) await new Promise<void>((resolve) => setImmediate(resolve));
+      const bytes = new Uint8Array(buffer);
+      hash.update(bytes.subarray(dataOffset, dataOffset + n * fb));
+      const from = dataOffset - tailFrames * fb;
+      bytes.set(tail.subarray(0, tailFrames * fb), from);
+      const keepFrames = Math.min(prefix, tailFrames + n);
+      const stop = dataOffset + n * fb;
+      tail.set(bytes.subarray(stop - keepFrames * fb, stop), 0);
+      sink.submit(buffer, from, stop - from, tailFrames, owned);
+      tailFrames = keepFrames;
+      onProgress?.(spanStartByte + end * fb, total);
+    }
+  } finally {
+    // A failed block leaves its successor's read running: let it settle before the file closes.
+    if (next !== null) await (next as Promise<unknown>).catch(() => undefined);
   }
   await hashRange(handle, hash, spanEndByte, total, meta.path);
   onProgress?.(total, total);
@@ -202,7 +220,8 @@ async function readFully(handle: FileHandle, into: Uint8Array, offset: number, l
 /** Where blocks go: this thread, or a pool of workers. */
 interface BlockSink {
   acquire(): Promise<ArrayBuffer>;
-  submit(buffer: ArrayBuffer, byteLength: number, prefixFrames: number, ownedStart: number): void;
+  /** Hands on the block held in buffer[byteOffset, byteOffset + byteLength). */
+  submit(buffer: ArrayBuffer, byteOffset: number, byteLength: number, prefixFrames: number, ownedStart: number): void;
   finish(): Promise<{ psd: WelchPsd; spectrogram: Spectrogram; health: HealthFigures }>;
   abort(): Promise<void>;
 }
@@ -211,18 +230,21 @@ function blockBytes(config: Pass1Config): number {
   return (config.maxBlockSamples + prefixSamples(config)) * formatInfo(config.format).frameBytes;
 }
 
+/** Blocks processed in this thread; two buffers, one being read while the other is processed. */
 class InlineSink implements BlockSink {
   private readonly engine: Pass1Engine;
-  private readonly buffer: ArrayBuffer;
+  private readonly buffers: ArrayBuffer[];
+  private turn = 0;
   constructor(config: Pass1Config) {
     this.engine = new Pass1Engine(config);
-    this.buffer = new ArrayBuffer(blockBytes(config));
+    this.buffers = [new ArrayBuffer(blockBytes(config)), new ArrayBuffer(blockBytes(config))];
   }
   async acquire(): Promise<ArrayBuffer> {
-    return this.buffer;
+    this.turn ^= 1;
+    return this.buffers[this.turn] as ArrayBuffer;
   }
-  submit(buffer: ArrayBuffer, byteLength: number, prefixFrames: number, ownedStart: number): void {
-    this.engine.processBlock(new Uint8Array(buffer, 0, byteLength), prefixFrames, ownedStart);
+  submit(buffer: ArrayBuffer, byteOffset: number, byteLength: number, prefixFrames: number, ownedStart: number): void {
+    this.engine.processBlock(new Uint8Array(buffer, byteOffset, byteLength), prefixFrames, ownedStart);
   }
   async finish(): Promise<{ psd: WelchPsd; spectrogram: Spectrogram; health: HealthFigures }> {
     return this.engine.finish();
@@ -240,12 +262,13 @@ class WorkerSink implements BlockSink {
   private readonly free: ArrayBuffer[] = [];
   private readonly waiting: ((b: ArrayBuffer) => void)[] = [];
   private failure: Error | null = null;
-  private readonly main: Pass1Engine;
 
-  constructor(config: Pass1Config, count: number) {
+  constructor(
+    private readonly config: Pass1Config,
+    count: number,
+  ) {
     const bytes = blockBytes(config);
     for (let k = 0; k < 2 * count + 1; k++) this.free.push(new ArrayBuffer(bytes));
-    this.main = new Pass1Engine(config);
     for (let k = 0; k < count; k++) {
       const worker = new Worker(WORKER_URL, { workerData: config });
       worker.on("message", (reply: WorkerReply) => {
@@ -277,11 +300,11 @@ class WorkerSink implements BlockSink {
     return buffer;
   }
 
-  submit(buffer: ArrayBuffer, byteLength: number, prefixFrames: number, ownedStart: number): void {
+  submit(buffer: ArrayBuffer, byteOffset: number, byteLength: number, prefixFrames: number, ownedStart: number): void {
     let k = 0;
     for (let j = 1; j < this.workers.length; j++) if ((this.inFlight[j] as number) < (this.inFlight[k] as number)) k = j;
     this.inFlight[k] = (this.inFlight[k] as number) + 1;
-    const request: WorkerRequest = { type: "block", buffer, byteLength, prefixFrames, ownedStart };
+    const request: WorkerRequest = { type: "block", buffer, byteOffset, byteLength, prefixFrames, ownedStart };
     (this.workers[k] as Worker).postMessage(request, [buffer]);
   }
 
@@ -301,8 +324,11 @@ class WorkerSink implements BlockSink {
         ),
       );
       if (this.failure) throw this.failure;
-      for (const s of states) this.main.merge(s.state);
-      return this.main.finish();
+      // The workers go first, so that their memory is free before the merged state is built.
+      await this.abort();
+      const merged = new Pass1Engine(this.config);
+      for (const s of states) merged.merge(s.state);
+      return merged.finish();
     } finally {
       await this.abort();
     }

@@ -12,12 +12,19 @@ const engine = new Pass1Engine(workerData as Pass1Config);
 
 port.on("message", (message: WorkerRequest) => {
   if (message.type === "block") {
-    const raw = new Uint8Array(message.buffer, 0, message.byteLength);
+    const raw = new Uint8Array(message.buffer, message.byteOffset, message.byteLength);
     engine.processBlock(raw, message.prefixFrames, message.ownedStart);
     const reply: WorkerReply = { type: "done", buffer: message.buffer };
     port.postMessage(reply, [message.buffer]);
   } else {
-    const reply: WorkerReply = { type: "state", state: engine.snapshot() };
-    port.postMessage(reply);
+    // The snapshot is a copy made for this message: hand its arrays over rather than clone them.
+    const state = engine.snapshot();
+    const reply: WorkerReply = { type: "state", state };
+    port.postMessage(reply, transferables(state));
   }
 });
+
+function transferables(state: ReturnType<Pass1Engine["snapshot"]>): ArrayBuffer[] {
+  const arrays = [state.welch.powerSum, state.welch.powerMax, state.spectrogram.powerSum, state.spectrogram.powerMax, state.spectrogram.framesPerRow];
+  return arrays.map((a) => a.buffer as ArrayBuffer);
+}

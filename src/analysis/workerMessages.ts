@@ -5,6 +5,7 @@ export type WorkerRequest =
   | {
       readonly type: "block";
       readonly buffer: ArrayBuffer;
+      readonly byteOffset: number;
       readonly byteLength: number;
       readonly prefixFrames: number;
       readonly ownedStart: number;

@@ -186,6 +186,9 @@ function scrubFloat(out: Float32Array, frames: number): { clipped: number; nonFi
   for (let k = 0; k < frames; k++) {
     const i = out[2 * k] as number;
     const q = out[2 * k + 1] as number;
+    // One test on the usual path: both inside (-1, 1). NaN fails every comparison, so a NaN
+    // or an infinity also takes the slow path below.
+    if (i < 1 && i > -1 && q < 1 && q > -1) continue;
     // x - x is NaN exactly when x is NaN or infinite.
     if (i - i !== 0 || q - q !== 0) {
       nonFinite++;
