@@ -24,6 +24,7 @@ export function formatBytes(n: number): string {
 }
 
 export function formatSeconds(s: number): string {
+  if (s === 0) return "0 s";
   if (s >= 1) return `${s.toFixed(3)} s`;
   if (s >= 1e-3) return `${(s * 1e3).toFixed(3)} ms`;
   return `${(s * 1e6).toFixed(1)} µs`;

@@ -24,7 +24,7 @@ export function inspectText(r: InspectReport): string {
     ["centre", c.centerHz === null ? "unknown (give --center for absolute frequencies)" : `${formatHz(c.centerHz)}  (${ORIGIN_WORDS[c.origin.centerHz]})`],
     ...(c.ppm !== 0 ? ([["clock correction", `${c.ppm} ppm`]] as [string, string][]) : []),
     ...(c.datetime !== null ? ([["recorded", c.datetime]] as [string, string][]) : []),
-    ["file", `${c.fileSamples} samples, ${formatSeconds(c.fileDurationS)}, ${formatBytes(c.fileBytes)}`],
+    ["size", `${c.fileSamples} samples, ${formatSeconds(c.fileDurationS)}, ${formatBytes(c.fileBytes)}`],
     ["analysed", `${c.samples} samples from ${formatSeconds(c.startS)}, ${formatSeconds(c.durationS)}`],
   ]);
   const health = alignedRows([
