@@ -15,3 +15,6 @@ export {
   noiseFloor, equivalentDegreesOfFreedom, chiSquareQuantileOverNu, standardNormalQuantile,
   NOISE_FLOOR_DEFAULTS, type NoiseFloor, type NoiseFloorOptions,
 } from "./noiseFloor.js";
+export {
+  designLowpass, firResponse, kaiserBeta, kaiserTapCount, besselI0, MAX_TAP_COUNT, type LowpassSpec,
+} from "./firDesign.js";
