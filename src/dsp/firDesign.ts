@@ -175,7 +175,8 @@ function peakStopbandGain(taps: Float64Array, stopEdge: number): number {
   const out = plan.createBuffer();
   for (let n = 0; n < taps.length; n++) input[2 * n] = taps[n] as number;
   plan.forward(out, input);
-  let peak = 0;
+  // The response still falls steeply at the edge itself, between grid points: evaluate it there.
+  let peak = firResponse(taps, stopEdge, 1);
   for (let k = Math.floor(stopEdge * size); k <= size / 2; k++) {
     if (k / size < stopEdge) continue;
     const g = Math.hypot(out[2 * k] as number, out[2 * k + 1] as number);
