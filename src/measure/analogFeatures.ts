@@ -1,0 +1,158 @@
+/**
+ * Features for telling analogue classes apart, from the channel baseband and its PSD. The
+ * caller hands over one emission's channel (or a capture holding one emission); the features
+ * are measured over [lowerHz, upperHz], by default the whole band ±fs/2.
+ *
+ * - snrDb: in-channel SNR as channelPower.ts defines it (given, or computed here).
+ * - occupiedHz: 99 % bandwidth (occupiedBandwidth.ts); resolutionHz: the PSD's ENBW.
+ * - lineShare: of the power above the floor in the range, the share in the strongest line,
+ *   i.e. the largest bin and its neighbours within the window's main-lobe half-width.
+ *   An unmodulated carrier has nearly all of it; tone AM 1/(1 + m²/2) (REFERENCES.md §5);
+ *   FM and PSK much less.
+ * - envelopeExcessVariance κ: the variance of the power envelope |s|² of the signal over its
+ *   squared mean, with the noise's part removed. For z = s + w, w circular Gaussian noise of
+ *   power N independent of s: E|z|² = S + N and var|z|² = var|s|² + 2SN + N², so
+ *   κ = (var|z|² − 2SN − N²)/S², S = E|z|² − N, N = floor × band width.
+ *   0 for a constant envelope (CW, FM); tone AM of depth m gives (2m² + m⁴/8)/(1 + m²/2)²
+ *   (0.166 at m = 0.3, 0.944 at m = 1); Gaussian noise-like signals 1.
+ * - frequencySpread ξ: the RMS of the instantaneous frequency arg(z[n]·z*[n−1])·fs/2π about
+ *   its mean, with the noise's part N·B²/(24·S) removed (phase noise N/(2S) per Hz of two-sided
+ *   density, differentiated over the band B), over the occupied bandwidth. FM has it
+ *   (tone FM: (D/√2)/OBW ≈ 0.3 for β = 5); a carrier has none.
+ *
+ * Records longer than 2^20 samples are analysed over their first 2^20 samples.
+ */
+import { fftPlan, noiseFloor, type WelchPsd } from "../dsp/index.js";
+import { channelPower } from "./channelPower.js";
+import { mainLobeHalfWidthBins } from "./detectDcSpike.js";
+import { occupiedBandwidth } from "./occupiedBandwidth.js";
+
+/** Measured features of an emission (module comment). Null where the input cannot give one. */
+export interface AnalogFeatures {
+  readonly snrDb: number | null;
+  readonly occupiedHz: number | null;
+  readonly resolutionHz: number;
+  readonly lineShare: number | null;
+  readonly envelopeExcessVariance: number | null;
+  readonly frequencySpread: number | null;
+}
+
+/** Options of analogFeatures. */
+export interface AnalogFeaturesOptions {
+  /** Noise density, FS²/Hz; default noiseFloor(psd). */
+  readonly noiseFloorPerHz?: number | undefined;
+  /** In-channel SNR already measured, dB; computed here when absent. */
+  readonly snrDb?: number | null | undefined;
+  readonly lowerHz?: number | undefined;
+  readonly upperHz?: number | undefined;
+}
+
+const MAX_SAMPLES = 1 << 20;
+
+/**
+ * Features of the emission in `iq` (interleaved I,Q at `sampleRateHz`) whose Welch PSD, at the
+ * same rate, is `psd`. Throws RangeError when the rates differ or the array is odd.
+ */
+export function analogFeatures(
+  iq: Float32Array | Float64Array,
+  sampleRateHz: number,
+  psd: WelchPsd,
+  options: AnalogFeaturesOptions = {},
+): AnalogFeatures {
+  if (psd.sampleRateHz !== sampleRateHz) throw new RangeError(`psd rate ${psd.sampleRateHz} Hz differs from sampleRateHz ${sampleRateHz}`);
+  if (iq.length % 2 !== 0) throw new RangeError(`iq has odd length ${iq.length}; it must be interleaved I,Q pairs`);
+  const floor = options.noiseFloorPerHz ?? noiseFloor(psd).densityPerHz;
+  const lowerHz = Math.max(options.lowerHz ?? -sampleRateHz / 2, -sampleRateHz / 2);
+  const upperHz = Math.min(options.upperHz ?? sampleRateHz / 2, sampleRateHz / 2);
+  const empty: AnalogFeatures = {
+    snrDb: options.snrDb ?? null, occupiedHz: null, resolutionHz: psd.enbwHz,
+    lineShare: null, envelopeExcessVariance: null, frequencySpread: null,
+  };
+  if (!(floor > 0)) return empty;
+  const obw = occupiedBandwidth(psd, { lowerHz, upperHz, noiseFloorPerHz: floor }).occupiedHz.value;
+  if (obw === null) return empty;
+  const snrDb = options.snrDb !== undefined
+    ? options.snrDb
+    : channelPower(psd, { lowerHz, upperHz, noiseFloorPerHz: floor, occupiedHz: obw }).snrDb.value;
+  const lineShare = strongestLineShare(psd, lowerHz, upperHz, floor);
+  const band = bandLimited(iq, sampleRateHz, lowerHz, upperHz);
+  const noisePower = floor * band.widthHz;
+  const { kappa, spreadHz } = envelopeAndFrequency(band.iq, sampleRateHz, noisePower, band.widthHz);
+  return {
+    snrDb, occupiedHz: obw, resolutionHz: psd.enbwHz, lineShare,
+    envelopeExcessVariance: kappa, frequencySpread: spreadHz === null ? null : spreadHz / obw,
+  };
+}
+
+function strongestLineShare(psd: WelchPsd, lowerHz: number, upperHz: number, floor: number): number | null {
+  const n = psd.fftLength;
+  const first = Math.max(0, Math.ceil(lowerHz / psd.binWidthHz + n / 2 - 1e-9));
+  const last = Math.min(n - 1, Math.floor(upperHz / psd.binWidthHz + n / 2 + 1e-9));
+  const e = (i: number): number => Math.max(0, (psd.densityPerHz[i] as number) - floor);
+  let total = 0;
+  let peak = first;
+  for (let i = first; i <= last; i++) {
+    total += e(i);
+    if (e(i) > e(peak)) peak = i;
+  }
+  if (!(total > 0)) return null;
+  const h = mainLobeHalfWidthBins(psd);
+  let line = 0;
+  for (let i = Math.max(first, peak - h); i <= Math.min(last, peak + h); i++) line += e(i);
+  return line / total;
+}
+
+/** The record limited to [lowerHz, upperHz] by zeroing DFT bins (zero-padded to 2×), and the kept width. */
+function bandLimited(iq: Float32Array | Float64Array, fs: number, lowerHz: number, upperHz: number): { iq: Float64Array; widthHz: number } {
+  const n = Math.min(iq.length / 2, MAX_SAMPLES);
+  if (lowerHz <= -fs / 2 && upperHz >= fs / 2) return { iq: Float64Array.from(iq.subarray(0, 2 * n)), widthHz: fs };
+  let size = 2;
+  while (size < 2 * n) size *= 2;
+  const plan = fftPlan(size);
+  const a = plan.createBuffer();
+  const b = plan.createBuffer();
+  for (let k = 0; k < 2 * n; k++) a[k] = iq[k] as number;
+  plan.forward(b, a);
+  let kept = 0;
+  for (let k = 0; k < size; k++) {
+    const f = (k < size / 2 ? k : k - size) * (fs / size);
+    if (f < lowerHz || f > upperHz) { b[2 * k] = 0; b[2 * k + 1] = 0; } else kept++;
+  }
+  plan.inverse(a, b);
+  return { iq: Float64Array.from(a.slice(0, 2 * n)), widthHz: (kept * fs) / size };
+}
+
+function envelopeAndFrequency(z: Float64Array, fs: number, noisePower: number, bandHz: number): { kappa: number | null; spreadHz: number | null } {
+  const n = z.length / 2;
+  // Skip 5 % at each end, where the circular band-limiting rings.
+  const from = Math.floor(0.05 * n);
+  const to = n - from;
+  let m1 = 0;
+  let m2 = 0;
+  let f1 = 0;
+  let f2 = 0;
+  let count = 0;
+  for (let k = Math.max(from, 1); k < to; k++) {
+    const i = z[2 * k] as number;
+    const q = z[2 * k + 1] as number;
+    const p = i * i + q * q;
+    m1 += p;
+    m2 += p * p;
+    const pi = z[2 * k - 2] as number;
+    const pq = z[2 * k - 1] as number;
+    const f = (Math.atan2(q * pi - i * pq, i * pi + q * pq) * fs) / (2 * Math.PI);
+    f1 += f;
+    f2 += f * f;
+    count++;
+  }
+  if (count < 8) return { kappa: null, spreadHz: null };
+  m1 /= count;
+  const varP = m2 / count - m1 * m1;
+  const s = m1 - noisePower;
+  if (!(s > 0)) return { kappa: null, spreadHz: null };
+  const kappa = (varP - 2 * s * noisePower - noisePower * noisePower) / (s * s);
+  f1 /= count;
+  const varF = f2 / count - f1 * f1;
+  const noiseVarF = (noisePower * bandHz * bandHz) / (24 * s);
+  return { kappa, spreadHz: Math.sqrt(Math.max(0, varF - noiseVarF)) };
+}

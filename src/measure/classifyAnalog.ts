@@ -1,0 +1,70 @@
+/**
+ * Analogue modulation class from measured features (analogFeatures.ts). Rules, in order:
+ *
+ * 1. noise: no SNR, or SNR below 6 dB (too little above the noise to say more).
+ * 2. am: the power envelope varies, κ ≥ 0.01, and a carrier line holds ≥ 40 % of the power
+ *    (double-sideband full-carrier AM keeps at least 2/3 in its carrier at 100 % tone depth,
+ *    REFERENCES.md §5).
+ * 3. cw: a line holds ≥ 90 % of the power and the envelope is constant, κ < 0.01.
+ * 4. fm: constant envelope, κ < 0.01, and an instantaneous-frequency spread ξ ≥ 0.03 of the
+ *    occupied bandwidth (frequency modulation moves the frequency, not the amplitude).
+ * 5. unknown: anything else, e.g. a PSK/QAM signal (envelope varies but no carrier line) or a
+ *    noise-like emission (κ ≈ 1). Digital classes are decided elsewhere.
+ *
+ * The thresholds sit between the values the module comment of analogFeatures.ts derives for
+ * each class, with room for the noise-correction error at SNR ≥ 15 dB (common practice of
+ * feature-based classifiers, tuned here, not from a standard). Limits: AM of a depth so small
+ * that κ < 0.01 reads cw; FM of index below ~0.3 keeps ≥ 90 % in its carrier and reads cw.
+ *
+ * confidence: 0.5 + 0.5 × the smallest margin by which the deciding features clear their
+ * thresholds (each margin ramped 0..1 over a stated span); a score of clarity, not a probability.
+ */
+import type { AnalogFeatures } from "./analogFeatures.js";
+
+/** The analogue classes, plus "noise" and "unknown" (interface.md `modulation.class`). */
+export type AnalogClass = "cw" | "am" | "fm" | "noise" | "unknown";
+
+/** A class decision with its confidence (0..1) and a one-line reason. */
+export interface AnalogClassification {
+  readonly class: AnalogClass;
+  readonly confidence: number;
+  readonly method: string;
+}
+
+/** Thresholds of classifyAnalog (module comment). */
+export const CLASSIFY_ANALOG_THRESHOLDS = {
+  minSnrDb: 6, envelopeKappa: 0.01, amLineShare: 0.4, cwLineShare: 0.9, fmSpread: 0.03,
+} as const;
+
+const ramp = (x: number, a: number, b: number): number => Math.min(1, Math.max(0, (x - a) / (b - a)));
+
+/** The class of an emission from its features, by the rules of the module comment. */
+export function classifyAnalog(features: AnalogFeatures): AnalogClassification {
+  const t = CLASSIFY_ANALOG_THRESHOLDS;
+  const { snrDb, lineShare, envelopeExcessVariance: kappa, frequencySpread: xi } = features;
+  if (snrDb === null || snrDb < t.minSnrDb) {
+    const c = snrDb === null ? 1 : ramp(t.minSnrDb - snrDb, 0, 6);
+    return { class: "noise", confidence: 0.5 + 0.5 * c, method: `SNR ${snrDb === null ? "none" : snrDb.toFixed(1) + " dB"} below ${t.minSnrDb} dB` };
+  }
+  const snrMargin = ramp(snrDb, t.minSnrDb, t.minSnrDb + 6);
+  const note = `SNR ${snrDb.toFixed(1)} dB, line share ${fmt(lineShare)}, envelope kappa ${fmt(kappa)}, frequency spread ${fmt(xi)}`;
+  if (kappa === null || lineShare === null) return { class: "unknown", confidence: 0.5, method: `${note}: features missing` };
+  if (kappa >= t.envelopeKappa && lineShare >= t.amLineShare) {
+    const c = Math.min(snrMargin, ramp(kappa, t.envelopeKappa, 3 * t.envelopeKappa), ramp(lineShare, t.amLineShare, t.amLineShare + 0.2));
+    return { class: "am", confidence: 0.5 + 0.5 * c, method: `${note}: varying envelope with a carrier line` };
+  }
+  const constantEnvelope = 1 - ramp(kappa, t.envelopeKappa / 2, t.envelopeKappa);
+  if (kappa < t.envelopeKappa && lineShare >= t.cwLineShare) {
+    const c = Math.min(snrMargin, constantEnvelope, ramp(lineShare, t.cwLineShare, 0.97));
+    return { class: "cw", confidence: 0.5 + 0.5 * c, method: `${note}: one line, constant envelope` };
+  }
+  if (kappa < t.envelopeKappa && xi !== null && xi >= t.fmSpread) {
+    const c = Math.min(snrMargin, constantEnvelope, ramp(xi, t.fmSpread, 2 * t.fmSpread));
+    return { class: "fm", confidence: 0.5 + 0.5 * c, method: `${note}: constant envelope, moving frequency` };
+  }
+  return { class: "unknown", confidence: 0.5, method: `${note}: no analogue class fits` };
+}
+
+function fmt(x: number | null): string {
+  return x === null ? "none" : x.toFixed(3);
+}
