@@ -18,3 +18,8 @@ export {
 export {
   designLowpass, firResponse, kaiserBeta, kaiserTapCount, besselI0, MAX_TAP_COUNT, type LowpassSpec,
 } from "./firDesign.js";
+export { Nco } from "./nco.js";
+export { PolyphaseDecimator } from "./polyphaseDecimator.js";
+export {
+  ChannelExtractor, CHANNEL_EXTRACTOR_DEFAULTS, MIN_RATE_OVER_BANDWIDTH, type ChannelExtractorOptions,
+} from "./channelExtractor.js";

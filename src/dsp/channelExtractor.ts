@@ -1,0 +1,153 @@
+/**
+ * One channel out of a capture: mix the channel centre to 0 Hz (Nco), then low-pass and
+ * decimate in a cascade of stages (PolyphaseDecimator, Kaiser-window taps from designLowpass).
+ *
+ * Rate: the total factor D is the largest 7-smooth integer (a product of factors 2..8) with
+ * fs/D ≥ 2.5·B, B = bandwidthHz; D = 1 when fs < 5·B. The output rate is fs/D.
+ *
+ * Stages: D is split into factors of at most 8, largest first. With passband edge fp = B/2 and
+ * overall stopband edge fst = fs/D − B/2 (anything beyond it would fold into the passband at the
+ * output rate), stage i, decimating to rate Fi, has passband [0, fp] and stopband edge Fi − fst
+ * (the last stage: fst), so what its transition band lets through aliases to at least fst, where
+ * a later stage removes it (Crochiere & Rabiner 1983, Multirate Digital Signal Processing,
+ * §5.3, the multistage decimator's stage edges). Each stage has the full stopband attenuation
+ * A (default 80 dB); the passband ripples add, at most about ±(stages)·10^(−A/20).
+ *
+ * Response of the whole chain (used by the tests): a tone at offsetHz + δ with |δ| ≤ fp leaves at
+ * δ with gain ∏ Hi(δ) ≈ 1; a tone with |δ| ≥ fst is attenuated by at least A dB before it reaches
+ * the output. White noise of density N0 (FS²/Hz) leaves with the same density over the passband.
+ */
+import { designLowpass } from "./firDesign.js";
+import { Nco } from "./nco.js";
+import { PolyphaseDecimator } from "./polyphaseDecimator.js";
+
+/** What ChannelExtractor needs: rates and frequencies in Hz, attenuation in dB. */
+export interface ChannelExtractorOptions {
+  /** Input sample rate, Hz. */
+  readonly sampleRateHz: number;
+  /** Channel centre, Hz from the capture centre (negative below it). */
+  readonly offsetHz: number;
+  /** Width of the channel kept, Hz: the passband is ±bandwidthHz/2 around offsetHz. */
+  readonly bandwidthHz: number;
+  /** Stopband attenuation of every stage, dB (default 80). */
+  readonly stopbandDb?: number;
+}
+
+/** Defaults of ChannelExtractorOptions. */
+export const CHANNEL_EXTRACTOR_DEFAULTS = { stopbandDb: 80 } as const;
+
+/** Smallest ratio of output rate to bandwidth the extractor decimates to (common practice). */
+export const MIN_RATE_OVER_BANDWIDTH = 2.5;
+
+/** Largest factor of one decimating stage. */
+const MAX_STAGE_FACTOR = 8;
+
+/** Streams interleaved I,Q blocks of a capture to the decimated baseband of one channel. */
+export class ChannelExtractor {
+  /** Output sample rate fs/D, Hz. */
+  readonly outputRateHz: number;
+  /** Total decimation D (product of the stage factors). */
+  readonly decimation: number;
+  /** Passband edge fp = bandwidthHz/2, Hz: the passband is [−fp, +fp] at the output. */
+  readonly passbandHz: number;
+  /** Stopband edge fst = outputRateHz − fp, Hz from the channel centre (A dB or more beyond). */
+  readonly stopbandEdgeHz: number;
+  /** Delay of the filters, s: Σ (Li − 1)/2 / (input rate of stage i). */
+  readonly delayS: number;
+  /** The factor of each stage, in order. */
+  readonly stageFactors: readonly number[];
+  /** The tap count of each stage, in order. */
+  readonly stageTapCounts: readonly number[];
+  private readonly nco: Nco;
+  private readonly stages: readonly PolyphaseDecimator[];
+
+  /** Throws RangeError for a non-positive rate or bandwidth, a bandwidth above the rate, or a non-finite offset. */
+  constructor(options: ChannelExtractorOptions) {
+    const { sampleRateHz: fs, offsetHz, bandwidthHz: B } = options;
+    const stopbandDb = options.stopbandDb ?? CHANNEL_EXTRACTOR_DEFAULTS.stopbandDb;
+    if (!(Number.isFinite(fs) && fs > 0)) throw new RangeError(`sampleRateHz ${fs} is not a positive finite number`);
+    if (!(Number.isFinite(B) && B > 0 && B <= fs)) {
+      throw new RangeError(`bandwidthHz ${B} is not in (0, sampleRateHz ${fs}]`);
+    }
+    if (!Number.isFinite(offsetHz)) throw new RangeError(`offsetHz ${offsetHz} is not finite`);
+    if (!(Number.isFinite(stopbandDb) && stopbandDb > 0)) {
+      throw new RangeError(`stopbandDb ${stopbandDb} is not a positive finite number`);
+    }
+    const D = largestSmoothAtMost(Math.floor(fs / (MIN_RATE_OVER_BANDWIDTH * B)));
+    const factors = splitFactor(D);
+    const fp = B / 2;
+    const fst = fs / D - fp;
+    const stages: PolyphaseDecimator[] = [];
+    let rateHz = fs;
+    let delayS = 0;
+    factors.forEach((f, i) => {
+      const outRateHz = rateHz / f;
+      const stopHz = i === factors.length - 1 ? fst : outRateHz - fst;
+      const taps = designLowpass({ cutoffHz: fp, transitionHz: stopHz - fp, stopbandDb, sampleRateHz: rateHz });
+      const stage = new PolyphaseDecimator(taps, f);
+      delayS += stage.delaySamples / rateHz;
+      stages.push(stage);
+      rateHz = outRateHz;
+    });
+    if (factors.length === 0 && fp < 0.45 * fs) {
+      // No decimation: still low-pass to the channel, stopband from fs/2 on.
+      const taps = designLowpass({ cutoffHz: fp, transitionHz: fs / 2 - fp, stopbandDb, sampleRateHz: fs });
+      const stage = new PolyphaseDecimator(taps, 1);
+      delayS += stage.delaySamples / fs;
+      stages.push(stage);
+    }
+    this.decimation = D;
+    this.outputRateHz = fs / D;
+    this.passbandHz = fp;
+    this.stopbandEdgeHz = factors.length === 0 ? fs / 2 : fst;
+    this.delayS = delayS;
+    this.stageFactors = factors;
+    this.stageTapCounts = stages.map((s) => s.tapCount);
+    this.nco = new Nco(offsetHz, fs);
+    this.stages = stages;
+  }
+
+  /**
+   * Mixes, filters and decimates the next block (interleaved I,Q, any even length; blocks are
+   * consecutive) and returns the channel samples it completes, interleaved, in a new array.
+   */
+  push(iq: Float32Array): Float32Array {
+    if (iq.length % 2 !== 0) throw new RangeError(`iq length ${iq.length} is not even (interleaved I,Q)`);
+    const first = this.stages[0];
+    if (first === undefined) return this.nco.mix(iq);
+    // The mixer writes straight into the first stage's buffer: one pass over the input.
+    this.nco.mix(iq, first.beginBlock(iq.length / 2));
+    let y = first.endBlock();
+    for (let i = 1; i < this.stages.length; i++) y = (this.stages[i] as PolyphaseDecimator).push(y);
+    return y;
+  }
+}
+
+/** True when n has no prime factor above 7. */
+function isSevenSmooth(n: number): boolean {
+  for (const p of [2, 3, 5, 7]) while (n % p === 0) n /= p;
+  return n === 1;
+}
+
+/** The largest 7-smooth integer ≤ n, or 1 for n < 2. */
+function largestSmoothAtMost(n: number): number {
+  for (let d = n; d >= 2; d--) if (isSevenSmooth(d)) return d;
+  return 1;
+}
+
+/**
+ * D (7-smooth) as stage factors of at most 8, few stages, largest first: prime factors taken
+ * largest first, each into the first stage it fits (first-fit decreasing). [] for D = 1.
+ */
+function splitFactor(D: number): number[] {
+  const primes: number[] = [];
+  let n = D;
+  for (const p of [7, 5, 3, 2]) while (n % p === 0) { primes.push(p); n /= p; }
+  const stages: number[] = [];
+  for (const p of primes) {
+    const i = stages.findIndex((s) => s * p <= MAX_STAGE_FACTOR);
+    if (i >= 0) stages[i] = (stages[i] as number) * p;
+    else stages.push(p);
+  }
+  return stages.sort((a, b) => b - a);
+}
