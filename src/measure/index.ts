@@ -1,5 +1,18 @@
 // The public surface of src/measure: re-exports only.
 export { measurement, notAvailable, type Measurement } from "./measurement.js";
+export { fastAtan2 } from "./fastAtan2.js";
+export { instantaneousFrequencyHz } from "./fmDiscriminator.js";
+export {
+  fmFigures, FM_FIGURES_DEFAULTS, type FmFigures, type FmFiguresOptions, type FmTrace,
+} from "./fmFigures.js";
+export { CTCSS_TONES_HZ, nearestCtcssToneHz } from "./ctcssTones.js";
+export { besselJ, besselJZeros } from "./bessel.js";
+export {
+  besselNullIndex, toneFmLineLevelsDb, BESSEL_NULL_DEFAULTS, type BesselNullOptions, type ToneFmLineLevels,
+} from "./besselNull.js";
+export {
+  amFigures, AM_FIGURES_DEFAULTS, AM_EXTREME_QUANTILE, type AmFigures, type AmFiguresOptions, type AmTrace,
+} from "./amFigures.js";
 export { detectDcSpike, mainLobeHalfWidthBins, DC_SPIKE_DEFAULTS, type DcSpike, type DcSpikeOptions } from "./detectDcSpike.js";
 export {
   locateEmission, LOCATE_EMISSION_DEFAULTS, type EmissionRegion, type LocateEmissionOptions,
