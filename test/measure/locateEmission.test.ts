@@ -1,0 +1,65 @@
+import { describe, expect, it } from "vitest";
+import { noiseFloor } from "../../src/dsp/index.js";
+import { detectDcSpike, locateEmission } from "../../src/measure/index.js";
+import { amFromAudio, toneAudio, tone } from "../../src/scenario/index.js";
+import { addNoise, bandNoise, psdOf } from "./emissionStimuli.js";
+
+const FS = 48000;
+const N = 1 << 17;
+
+describe("detectDcSpike(psd, floor) and locateEmission(psd, floor)", () => {
+  it("set aside a DC spike stronger than an off-centre carrier and pick the carrier (zero-IF practice, docs/methods.md)", () => {
+    // Receiver DC offset 0.3 FS (−10.5 dBFS) and a carrier at +7.3 kHz of amplitude 0.1 (−20 dBFS).
+    const iq = addNoise(tone(N, FS, 7300, { amplitude: 0.1 }), 1e-4, 1);
+    for (let k = 0; k < N; k++) iq[2 * k] = (iq[2 * k] as number) + 0.3;
+    const psd = psdOf(iq, 1024, FS);
+    const floor = noiseFloor(psd).densityPerHz;
+    const spike = detectDcSpike(psd, floor);
+    expect(spike.present).toBe(true);
+    // An on-bin line with Hann covers 3 bins (the DFT of the periodic Hann window: −¼, ½, −¼).
+    expect(spike.widthHz).toBeLessThanOrEqual(3 * psd.binWidthHz);
+    // Its power: 0.09 FS² = −10.46 dBFS (Parseval over its bins), ±0.1 dB.
+    expect(Math.abs(spike.levelDbfs - 10 * Math.log10(0.09))).toBeLessThan(0.1);
+    const r = locateEmission(psd, floor);
+    expect(r).not.toBeNull();
+    expect(r?.dcSpikeSkipped).toBe(true);
+    // The carrier lies inside the region, which is a few bins wide: the line stands ~64 dB above
+    // the floor per bin, and Hann sidelobes (−31 dB, falling 18 dB/octave; Harris 1978 Table 1)
+    // stay above floor + 3 dB for about ±4–5 bins.
+    expect((r?.lowerEdgeHz as number) < 7300 && (r?.upperEdgeHz as number) > 7300).toBe(true);
+    expect(r?.widthHz as number).toBeLessThan(12 * psd.binWidthHz);
+  });
+
+  it("keeps an AM carrier at 0 Hz with its sidebands as the emission (sidebands mirror about 0 Hz, RR App. 1 A3E)", () => {
+    const audio = toneAudio(0, N, FS, 3000);
+    const iq = addNoise(amFromAudio(audio, 60, 0.3), 1e-5, 2);
+    const psd = psdOf(iq, 1024, FS);
+    const floor = noiseFloor(psd).densityPerHz;
+    const r = locateEmission(psd, floor);
+    expect(r?.dcSpikeSkipped).toBe(false);
+    // The region spans both sidebands at ±3 kHz (and so the carrier between them).
+    expect(r?.lowerEdgeHz as number).toBeLessThan(-3000);
+    expect(r?.upperEdgeHz as number).toBeGreaterThan(3000);
+  });
+
+  it("does not call a wideband emission centred at 0 Hz a spike, and returns the channel when one is given", () => {
+    const iq = bandNoise(N, FS, -4000, 4000, 0.1, 1e-8, 3);
+    const psd = psdOf(iq, 1024, FS);
+    const floor = noiseFloor(psd).densityPerHz;
+    expect(detectDcSpike(psd, floor).present).toBe(false);
+    const r = locateEmission(psd, floor);
+    // Brick-wall band ±4 kHz: the region's edges lie at the band edges within the Hann skirt (±2 bins).
+    expect(Math.abs((r?.lowerEdgeHz as number) + 4000)).toBeLessThan(3 * psd.binWidthHz);
+    expect(Math.abs((r?.upperEdgeHz as number) - 4000)).toBeLessThan(3 * psd.binWidthHz);
+    const c = locateEmission(psd, floor, { channel: { offsetHz: 1000, widthHz: 2000 } });
+    expect(c?.lowerEdgeHz).toBe(0);
+    expect(c?.upperEdgeHz).toBe(2000);
+    expect(() => locateEmission(psd, floor, { channel: { offsetHz: 30000, widthHz: 2000 } })).toThrow(RangeError);
+  });
+
+  it("returns null for noise alone", () => {
+    const iq = bandNoise(N, FS, 0, 1, 0, 1e-6, 4);
+    const psd = psdOf(iq, 1024, FS);
+    expect(locateEmission(psd, noiseFloor(psd).densityPerHz)).toBeNull();
+  });
+});
