@@ -16,9 +16,11 @@
  *   0 for a constant envelope (CW, FM); tone AM of depth m gives (2m² + m⁴/8)/(1 + m²/2)²
  *   (0.166 at m = 0.3, 0.944 at m = 1); Gaussian noise-like signals 1.
  * - frequencySpread ξ: the RMS of the instantaneous frequency arg(z[n]·z*[n−1])·fs/2π about
- *   its mean, with the noise's part N·B²/(24·S) removed (phase noise N/(2S) per Hz of two-sided
- *   density, differentiated over the band B), over the occupied bandwidth. FM has it
- *   (tone FM: (D/√2)/OBW ≈ 0.3 for β = 5); a carrier has none.
+ *   its mean, with the noise's part removed (phase noise of two-sided density N0/(2S) through
+ *   the first difference, 4·sin²(πf/fs), over the band about the mean frequency; ≈ N·B²/(24·S)
+ *   for a band B ≪ fs), over the occupied bandwidth. FM has it
+ *   (tone FM: (D/√2)/OBW, 0.26 for β = 3); a carrier has none. Below about 10 dB SNR in the
+ *   analysed band, phase wraps ("clicks") inflate ξ, so it is only read after the line test.
  *
  * Records longer than 2^20 samples are analysed over their first 2^20 samples.
  */
@@ -77,7 +79,7 @@ export function analogFeatures(
   const lineShare = strongestLineShare(psd, lowerHz, upperHz, floor);
   const band = bandLimited(iq, sampleRateHz, lowerHz, upperHz);
   const noisePower = floor * band.widthHz;
-  const { kappa, spreadHz } = envelopeAndFrequency(band.iq, sampleRateHz, noisePower, band.widthHz);
+  const { kappa, spreadHz } = envelopeAndFrequency(band.iq, sampleRateHz, noisePower, band.lowerHz, band.upperHz);
   return {
     snrDb, occupiedHz: obw, resolutionHz: psd.enbwHz, lineShare,
     envelopeExcessVariance: kappa, frequencySpread: spreadHz === null ? null : spreadHz / obw,
@@ -103,9 +105,11 @@ function strongestLineShare(psd: WelchPsd, lowerHz: number, upperHz: number, flo
 }
 
 /** The record limited to [lowerHz, upperHz] by zeroing DFT bins (zero-padded to 2×), and the kept width. */
-function bandLimited(iq: Float32Array | Float64Array, fs: number, lowerHz: number, upperHz: number): { iq: Float64Array; widthHz: number } {
+function bandLimited(
+  iq: Float32Array | Float64Array, fs: number, lowerHz: number, upperHz: number,
+): { iq: Float64Array; widthHz: number; lowerHz: number; upperHz: number } {
   const n = Math.min(iq.length / 2, MAX_SAMPLES);
-  if (lowerHz <= -fs / 2 && upperHz >= fs / 2) return { iq: Float64Array.from(iq.subarray(0, 2 * n)), widthHz: fs };
+  if (lowerHz <= -fs / 2 && upperHz >= fs / 2) return { iq: Float64Array.from(iq.subarray(0, 2 * n)), widthHz: fs, lowerHz: -fs / 2, upperHz: fs / 2 };
   let size = 2;
   while (size < 2 * n) size *= 2;
   const plan = fftPlan(size);
@@ -119,20 +123,22 @@ function bandLimited(iq: Float32Array | Float64Array, fs: number, lowerHz: numbe
     if (f < lowerHz || f > upperHz) { b[2 * k] = 0; b[2 * k + 1] = 0; } else kept++;
   }
   plan.inverse(a, b);
-  return { iq: Float64Array.from(a.slice(0, 2 * n)), widthHz: (kept * fs) / size };
+  return { iq: Float64Array.from(a.slice(0, 2 * n)), widthHz: (kept * fs) / size, lowerHz, upperHz };
 }
 
-function envelopeAndFrequency(z: Float64Array, fs: number, noisePower: number, bandHz: number): { kappa: number | null; spreadHz: number | null } {
+function envelopeAndFrequency(
+  z: Float64Array, fs: number, noisePower: number, lowerHz: number, upperHz: number,
+): { kappa: number | null; spreadHz: number | null } {
   const n = z.length / 2;
   // Skip 5 % at each end, where the circular band-limiting rings.
-  const from = Math.floor(0.05 * n);
-  const to = n - from;
+  const from = Math.max(1, Math.floor(0.05 * n));
+  const to = n - Math.floor(0.05 * n);
   let m1 = 0;
   let m2 = 0;
   let f1 = 0;
   let f2 = 0;
   let count = 0;
-  for (let k = Math.max(from, 1); k < to; k++) {
+  for (let k = from; k < to; k++) {
     const i = z[2 * k] as number;
     const q = z[2 * k + 1] as number;
     const p = i * i + q * q;
@@ -153,6 +159,15 @@ function envelopeAndFrequency(z: Float64Array, fs: number, noisePower: number, b
   const kappa = (varP - 2 * s * noisePower - noisePower * noisePower) / (s * s);
   f1 /= count;
   const varF = f2 / count - f1 * f1;
-  const noiseVarF = (noisePower * bandHz * bandHz) / (24 * s);
-  return { kappa, spreadHz: Math.sqrt(Math.max(0, varF - noiseVarF)) };
+  return { kappa, spreadHz: Math.sqrt(Math.max(0, varF - frequencyNoiseVariance(fs, noisePower / (upperHz - lowerHz), s, lowerHz - f1, upperHz - f1))) };
+}
+
+/**
+ * Variance (Hz²) that white noise of density n0 (over [a, b] Hz relative to the carrier) adds to
+ * the first-difference frequency arg(z[n]z*[n−1])·fs/2π at high SNR: phase noise of two-sided
+ * density n0/(2S) through |1 − e^(−j2πf/fs)|² = 4·sin²(πf/fs), scaled by (fs/2π)².
+ */
+function frequencyNoiseVariance(fs: number, n0: number, s: number, a: number, b: number): number {
+  const integral = (f: number): number => 2 * (f - (fs / (2 * Math.PI)) * Math.sin((2 * Math.PI * f) / fs));
+  return (fs / (2 * Math.PI)) ** 2 * (n0 / (2 * s)) * (integral(b) - integral(a));
 }
