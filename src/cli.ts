@@ -15,6 +15,9 @@ import { inspectCommand } from "./commands/inspect.js";
 import { spectrogramCommand, SPECTROGRAM_DEFAULTS } from "./commands/spectrogram.js";
 import { demoCommand } from "./commands/demo.js";
 import { inspectText } from "./report/inspectText.js";
+import { measureCommand } from "./commands/measure.js";
+import { measureText } from "./report/measureText.js";
+import { MEASURE_MODES, type MeasureMode } from "./analysis/measureEmission.js";
 
 interface GlobalFlags {
   quiet?: boolean;
@@ -95,6 +98,50 @@ function program(): Command {
       },
     );
 
+  addCaptureOptions(
+    root
+      .command("measure")
+      .argument("<capture>", "capture file")
+      .description(
+        "measure one emission: carrier offset/frequency/error, occupied and x-dB bandwidth, channel power and SNR, " +
+          "class (cw, am, fm), FM deviation and tones, AM depth, emission designator; writes a report folder with --out",
+      ),
+  )
+    .option("--channel <offset:width>", "measure the emission in this channel, e.g. 12.5k:25k (offset from the capture centre : width), default the strongest")
+    .option("--nominal <Hz>", "assigned (nominal) carrier frequency, for the error in ppm; needs --center")
+    .option("--xdb <dB>", "level below the spectral peak for the x-dB bandwidth", "26")
+    .option("--audio-bw <Hz>", "audio low-pass before FM peak deviation and AM depth (clicks of noise are removed)", "3k")
+    .addOption(new Option("--mode <class>", "take the emission as this class instead of classifying it").choices(MEASURE_MODES))
+    .option("-o, --out <dir>", "write report.json, report.md and the figures (PNG) into this folder")
+    .option("--json", "print the report as one JSON document on stdout (schema iqaudit/report/1)")
+    .addHelpText(
+      "after",
+      "\nWithout --json a summary for a person is printed. Figures and methods: docs/methods.md.\n" +
+        "Results are indicative: the licence and local regulation decide what applies; see iqaudit --help for cautions.",
+    )
+    .action(
+      async (
+        path: string,
+        flags: RawCaptureFlags & { channel?: string; nominal?: string; xdb: string; audioBw: string; mode?: MeasureMode; out?: string; json?: boolean },
+      ) => {
+        const progress = createProgress(`measure ${path}`, !quiet());
+        const result = await measureCommand(path, {
+          capture: captureArgs(flags),
+          channel: flags.channel === undefined ? undefined : parseChannel(flags.channel),
+          nominalHz: flags.nominal === undefined ? undefined : parseQuantity("--nominal", flags.nominal, { unit: "Hz", min: 0 }),
+          xDb: parseQuantity("--xdb", flags.xdb, { unit: "none", min: 0 }),
+          audioBandwidthHz: parseQuantity("--audio-bw", flags.audioBw, { unit: "Hz", min: 0 }),
+          mode: flags.mode,
+          outDir: flags.out,
+          pass1: { onProgress: progress.onProgress },
+        });
+        progress.done();
+        warn(result.report.warnings);
+        if (flags.json === true) process.stdout.write(`${JSON.stringify(result.report, null, 2)}\n`);
+        else process.stdout.write(measureText(result.report, result.files));
+      },
+    );
+
   root
     .command("demo")
     .description("write the bundled sample scenario's captures (if missing) and run the tool on them")
@@ -105,6 +152,15 @@ function program(): Command {
       process.stdout.write(summary.text);
     });
   return root;
+}
+
+function parseChannel(text: string): { offsetHz: number; widthHz: number } {
+  const parts = text.split(":");
+  if (parts.length !== 2) throw new UsageError("--channel", `'${text}' is not OFFSET:WIDTH in Hz, e.g. 12.5k:25k`);
+  return {
+    offsetHz: parseQuantity("--channel", parts[0] as string, { unit: "Hz" }),
+    widthHz: parseQuantity("--channel", parts[1] as string, { unit: "Hz", min: 0 }),
+  };
 }
 
 function parseSize(text: string): [number, number] {

@@ -5,18 +5,31 @@
 import { open } from "node:fs/promises";
 import { openCapture, resolveSpan } from "../capture/index.js";
 import { runPass1 } from "../analysis/index.js";
+import { measureEmission } from "../analysis/measureEmission.js";
 import { fftPlan } from "../dsp/index.js";
 
 async function main(): Promise<void> {
   const [mode, path, workersText] = process.argv.slice(2) as [string, string, string | undefined];
   const started = process.hrtime.bigint();
   let samples = 0;
+  let extra: Record<string, number> = {};
   if (mode === "pass1") {
     const source = await openCapture(path, {});
     const { span } = resolveSpan(source.meta);
     await source.close();
     samples = span.sampleCount;
     await runPass1(source.meta, span, { workers: workersText === undefined ? "auto" : Number(workersText) });
+  } else if (mode === "measure") {
+    // measure of the FM emission at +300 kHz (25 kHz channel): pass 1, then pass 2 and the figures.
+    const source = await openCapture(path, {});
+    const { span } = resolveSpan(source.meta);
+    samples = span.sampleCount;
+    const pass1 = await runPass1(source.meta, span, {});
+    const afterPass1 = process.hrtime.bigint();
+    await measureEmission(source, span, pass1, { channel: { offsetHz: 300e3, widthHz: 25e3 } });
+    await source.close();
+    const end = process.hrtime.bigint();
+    extra = { pass1S: Number(afterPass1 - started) / 1e9, pass2S: Number(end - afterPass1) / 1e9 };
   } else if (mode === "read") {
     const handle = await open(path, "r");
     const buffer = new Uint8Array(8 << 20);
@@ -47,7 +60,7 @@ async function main(): Promise<void> {
   }
   const seconds = Number(process.hrtime.bigint() - started) / 1e9;
   const maxRssMiB = process.resourceUsage().maxRSS / 1024;
-  process.stdout.write(`${JSON.stringify({ mode, samples, seconds, maxRssMiB })}\n`);
+  process.stdout.write(`${JSON.stringify({ mode, samples, seconds, maxRssMiB, ...extra })}\n`);
 }
 
 main().catch((e: unknown) => {

@@ -32,7 +32,7 @@ export async function analyseCapture(path: string, args: CaptureArgs, pass1: Pas
 }
 
 /** Health findings a user must not miss, as warnings beside the figures. */
-function healthWarnings(result: Pass1Result): string[] {
+export function healthWarnings(result: Pass1Result): string[] {
   const h = result.health;
   const out: string[] = [];
   if (h.nonFiniteSamples > 0) {

@@ -7,6 +7,7 @@ import { basename, join } from "node:path";
 import { writeScenario, type ScenarioFile } from "../scenario/index.js";
 import { inspectCommand } from "./inspect.js";
 import { spectrogramCommand } from "./spectrogram.js";
+import { measureCommand } from "./measure.js";
 import type { CaptureArgs } from "./analyseCapture.js";
 import type { Pass1Options } from "../analysis/index.js";
 import { inspectText } from "../report/inspectText.js";
@@ -45,7 +46,12 @@ export async function demoCommand(options: DemoOptions): Promise<DemoSummary> {
     const png = join(dir, "spectrogram.png");
     const s = await spectrogramCommand(file.path, { capture, outputPath: png });
     written.push(inspectJson, join(dir, "inspect.txt"), png);
+    // The strongest emission of each capture, measured into its own report folder.
+    const measured = await measureCommand(file.path, { capture, outDir: join(dir, "measure") });
+    written.push(...measured.files);
+    const m = measured.report;
     warnings.push(...report.warnings.map((w) => `${basename(file.path)}: ${w}`));
+    warnings.push(...measured.report.warnings.filter((w) => !report.warnings.includes(w)).map((w) => `${basename(file.path)} measure: ${w}`));
     const q = report.quality;
     lines.push(
       `${basename(file.path)}: ${file.description}`,
@@ -53,7 +59,12 @@ export async function demoCommand(options: DemoOptions): Promise<DemoSummary> {
         `noise floor ${q.noiseFloorDbfsPerHz.toFixed(1)} dBFS/Hz; strongest line ${formatHz(report.spectrum.peakOffsetHz)} offset ` +
         `at ${report.spectrum.peakDbfs.toFixed(1)} dBFS; clipping ${q.clippingPercent.toFixed(3)} %; ` +
         `IQ ${q.iqGainImbalanceDb.toFixed(2)} dB / ${q.iqPhaseImbalanceDeg.toFixed(2)}°`,
-      `  -> ${inspectJson}, ${png} (${s.rows} rows)`,
+      `  strongest emission: ${m.modulation.class} at ${m.carrier.offsetHz === null ? "?" : formatHz(m.carrier.offsetHz)} offset` +
+        `, OBW ${m.bandwidth.occupiedHz === null ? "?" : formatHz(m.bandwidth.occupiedHz)}, designator ${m.emission.designator ?? "n/a"}` +
+        (m.fm === null || m.fm.peakDeviationHz === null ? "" : `, peak deviation ${formatHz(m.fm.peakDeviationHz)}`) +
+        (m.fm === null || m.fm.toneHz === null ? "" : `, tone ${m.fm.toneHz.toFixed(1)} Hz`) +
+        (m.am === null || m.am.modulationDepthPercent === null ? "" : `, depth ${m.am.modulationDepthPercent.toFixed(1)} %`),
+      `  -> ${inspectJson}, ${png} (${s.rows} rows), ${join(dir, "measure", "report.md")}`,
       "",
     );
   }

@@ -106,7 +106,7 @@ export function amFigures(iq: Float32Array, sampleRateHz: number, options: AmFig
   const sigmaIn = Math.sqrt(((residual2 / (end - first)) * keep) / Math.max(sampleRateHz / 2 - keep, 1e-300));
   // k = 2: twice the noise on one extreme, plus the ±1e-3 passband ripple of the 60 dB design.
   const uDepth = vc > 0 ? (100 * (2 * sigmaIn + 1e-3 * vmax)) / vc : null;
-  const depthNote = "quantile extremes of the filtered envelope (REFERENCES.md §5)";
+  const depthNote = "m+ = (Vmax − Vc)/Vc, m− = (Vc − Vmin)/Vc from 0.1 %/99.9 % quantiles of the filtered envelope";
   const carrierM = measurement(vc, "", (2 * sigmaIn) / Math.sqrt(end - first), "carrier level Vc: mean of the filtered envelope");
   if (!(vc > 0)) {
     return tooShort("the envelope is zero: no carrier", w, method);

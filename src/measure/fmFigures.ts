@@ -149,7 +149,7 @@ export function fmFigures(iq: Float32Array, sampleRateHz: number, options: FmFig
       line.prominenceDb < 10 ? [`the dominant audio line stands only ${line.prominenceDb.toFixed(1)} dB over the band median: no clear tone`] : []);
 
   const indexM = ratio(peakM, fmM);
-  const carsonMethod = "Carson's rule B = 2(Δf + fm) (REFERENCES.md §2)";
+  const carsonMethod = "Carson's rule B = 2(Δf + fm) (J. R. Carson 1922)";
   const carsonM = fmM.value === null
     ? notAvailable("Hz", carsonMethod, "no modulating frequency")
     : measurement(2 * (peak + fmM.value), "Hz", 2 * Math.hypot(peakM.uncertainty ?? 0, fmM.uncertainty ?? 0), carsonMethod);

@@ -5,6 +5,7 @@
 import type { CaptureMeta, Origin, SampleSpan } from "../capture/index.js";
 import type { Pass1Result } from "../analysis/index.js";
 import { TOOL_NAME, TOOL_VERSION } from "../version.js";
+import { absoluteFrequencyHz } from "../analysis/clockCorrection.js";
 
 export interface CaptureSection {
   readonly path: string;
@@ -56,13 +57,6 @@ export interface InspectReport {
   readonly uncertainty: Readonly<Record<string, number>>;
   readonly methods: Readonly<Record<string, string>>;
   readonly warnings: readonly string[];
-}
-
-/** Absolute RF of an offset, corrected for the receiver's clock error (REFERENCES.md §10). */
-export function absoluteFrequencyHz(meta: CaptureMeta, offsetHz: number): number | null {
-  if (meta.centerHz === null) return null;
-  const correctedOffset = offsetHz - meta.ppm * 1e-6 * meta.centerHz;
-  return meta.centerHz + correctedOffset;
 }
 
 export function captureSection(meta: CaptureMeta, span: SampleSpan, sha256: string): CaptureSection {

@@ -1,0 +1,93 @@
+/**
+ * Everything `measure` finds about one emission, as Measurements (value, unit, k = 2
+ * uncertainty, method). Built by measureEmission(); turned into the contract's JSON, the Markdown
+ * report and the figures by src/report/.
+ */
+import type { WelchPsd } from "../dsp/index.js";
+import type { Measurement } from "../measure/index.js";
+
+export type EmissionClass = "cw" | "am" | "fm" | "fsk" | "ook" | "psk" | "qam" | "noise" | "unknown";
+
+/** A min/max trace over time for a figure: one pair a time bucket. */
+export interface Trace {
+  readonly timeS: ArrayLike<number>;
+  readonly min: ArrayLike<number>;
+  readonly max: ArrayLike<number>;
+}
+
+export interface FmFiguresOut {
+  readonly peakDeviationHz: Measurement;
+  readonly positiveDeviationHz: Measurement;
+  readonly negativeDeviationHz: Measurement;
+  readonly rmsDeviationHz: Measurement;
+  readonly rawPeakDeviationHz: Measurement;
+  readonly modulatingFrequencyHz: Measurement;
+  readonly modulationIndex: Measurement;
+  readonly carsonBandwidthHz: Measurement;
+  readonly toneHz: Measurement;
+  readonly toneStandardHz: number | null;
+  readonly toneDeviationHz: Measurement;
+  readonly besselNullIndex: Measurement;
+  readonly audioBandwidthHz: number;
+  /** Instantaneous frequency relative to the carrier, Hz. */
+  readonly trace: Trace;
+}
+
+export interface AmFiguresOut {
+  readonly modulationDepthPercent: Measurement;
+  readonly positiveDepthPercent: Measurement;
+  readonly negativeDepthPercent: Measurement;
+  readonly modulatingFrequencyHz: Measurement;
+  readonly upperSidebandDbc: Measurement;
+  readonly lowerSidebandDbc: Measurement;
+  /** Envelope relative to the carrier level (1 = carrier). */
+  readonly trace: Trace;
+}
+
+export interface EmissionFigures {
+  readonly channel: {
+    readonly offsetHz: number;
+    readonly widthHz: number;
+    readonly givenByUser: boolean;
+    readonly sampleRateHz: number;
+    readonly decimation: number;
+    readonly measuredS: number;
+  };
+  readonly dcSpike: { readonly present: boolean; readonly levelDbfs: number | null; readonly widthHz: number | null };
+  readonly carrier: {
+    readonly offsetHz: Measurement;
+    readonly frequencyHz: Measurement;
+    readonly errorPpm: Measurement;
+    readonly nominalHz: number | null;
+  };
+  readonly bandwidth: {
+    readonly occupiedHz: Measurement;
+    readonly lowerEdgeHz: Measurement;
+    readonly upperEdgeHz: Measurement;
+    readonly xDbHz: Measurement;
+    readonly xDbLowerEdgeHz: Measurement;
+    readonly xDbUpperEdgeHz: Measurement;
+    readonly xDb: number;
+    readonly resolutionHz: number;
+  };
+  readonly power: { readonly channelDbfs: Measurement; readonly snrDb: Measurement };
+  readonly modulation: {
+    readonly class: EmissionClass;
+    readonly order: number | null;
+    readonly confidence: number;
+    readonly forced: boolean;
+    readonly method: string;
+    readonly features: Readonly<Record<string, number>>;
+  };
+  readonly fm: FmFiguresOut | null;
+  readonly am: AmFiguresOut | null;
+  readonly emission: {
+    readonly designator: string | null;
+    readonly necessaryBandwidthHz: Measurement;
+    readonly method: string;
+  };
+  /** PSD of the channel baseband (0 Hz = channel.offsetHz), for the spectrum figure. */
+  readonly channelPsd: WelchPsd | null;
+  readonly noiseFloorDbfsPerHz: number;
+  readonly warnings: readonly string[];
+}

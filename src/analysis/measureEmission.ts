@@ -1,0 +1,308 @@
+/**
+ * The measurement of one emission, after pass 1: find it in the pass-1 PSD (or take the user's
+ * channel), tell a receiver DC spike from a carrier, extract its channel (pass 2), estimate its
+ * PSD at a resolution that suits it, then bandwidth, power, class and the figures of its class,
+ * each as a Measurement. Methods and sources: docs/methods.md.
+ */
+import type { CaptureMeta, CaptureSource, SampleSpan } from "../capture/index.js";
+import { UsageError } from "../errors.js";
+import { WelchAccumulator, type WelchPsd } from "../dsp/index.js";
+import {
+  amFigures,
+  analogFeatures,
+  besselNullIndex,
+  channelPower,
+  classifyAnalog,
+  detectDcSpike,
+  emissionDesignator,
+  fmFigures,
+  frequencyErrorPpmOf,
+  locateEmission,
+  measurement,
+  necessaryBandwidthAmHz,
+  necessaryBandwidthFmHz,
+  notAvailable,
+  occupiedBandwidth,
+  psdCentroidHz,
+  toneFrequency,
+  xDbBandwidth,
+  type AnalogClass,
+  type Measurement,
+} from "../measure/index.js";
+import type { Pass1Result } from "./pass1.js";
+import { runPass2 } from "./pass2.js";
+import { correctedOffsetHz } from "./clockCorrection.js";
+import type { AmFiguresOut, EmissionFigures, FmFiguresOut } from "./emissionFigures.js";
+
+/** Classes `--mode` can force (the analog ones; the digital classes come with their measurements). */
+export const MEASURE_MODES = ["cw", "am", "fm"] as const;
+export type MeasureMode = (typeof MEASURE_MODES)[number];
+
+export interface MeasureEmissionOptions {
+  /** The channel to measure (offset from the capture centre and width, Hz); default the strongest emission. */
+  readonly channel?: { readonly offsetHz: number; readonly widthHz: number } | undefined;
+  /** Assigned frequency, Hz, for the error in ppm (needs the capture centre). */
+  readonly nominalHz?: number | undefined;
+  /** Level below the spectral peak for the x-dB bandwidth, dB (default 26). */
+  readonly xDb?: number | undefined;
+  /** Audio low-pass before FM peak deviation and AM depth, Hz (default 3000). */
+  readonly audioBandwidthHz?: number | undefined;
+  readonly mode?: MeasureMode | undefined;
+  /** Most decimated channel samples kept (default 2^22). */
+  readonly maxChannelSamples?: number | undefined;
+  readonly onProgress?: ((doneSamples: number, totalSamples: number) => void) | undefined;
+}
+
+export const MEASURE_DEFAULTS = { xDb: 26, audioBandwidthHz: 3000 } as const;
+
+export async function measureEmission(
+  source: CaptureSource,
+  span: SampleSpan,
+  pass1: Pass1Result,
+  options: MeasureEmissionOptions,
+): Promise<EmissionFigures> {
+  const meta = source.meta;
+  const fs = meta.sampleRateHz;
+  const xDb = options.xDb ?? MEASURE_DEFAULTS.xDb;
+  const audioBandwidthHz = options.audioBandwidthHz ?? MEASURE_DEFAULTS.audioBandwidthHz;
+  checkOptions(options, meta);
+  const floor = pass1.noiseFloor.densityPerHz;
+  const warnings: string[] = [];
+  const dc = detectDcSpike(pass1.psd, floor);
+  const dcSpike = { present: dc.present, levelDbfs: dc.present ? dc.levelDbfs : null, widthHz: dc.present ? dc.widthHz : null };
+  const region = locateEmission(pass1.psd, floor, { channel: options.channel });
+  if (region === null) {
+    warnings.push("no emission stands above the noise floor: nothing to measure");
+    return noEmission(pass1, dcSpike, xDb, options.nominalHz ?? null, warnings);
+  }
+  if (dc.present) warnings.push(`a receiver DC spike at 0 Hz (${dc.levelDbfs.toFixed(1)} dBFS) was not taken for the emission`);
+
+  // The channel to extract: the user's, or the region found with room for its skirts.
+  const givenByUser = options.channel !== undefined;
+  const offsetHz = options.channel?.offsetHz ?? region.centerOffsetHz;
+  const widthHz = Math.min(options.channel?.widthHz ?? Math.max(region.widthHz * 1.6, 16 * pass1.psd.binWidthHz), 0.9 * fs);
+  const pass2 = await runPass2(source, span, { offsetHz, bandwidthHz: widthHz, maxSamples: options.maxChannelSamples, onProgress: options.onProgress });
+  warnings.push(...pass2.warnings);
+  const iq = pass2.iq;
+  const fsc = pass2.sampleRateHz;
+  const half = widthHz / 2;
+  const psd = channelPsd(iq, fsc, widthHz);
+  if (psd === null) {
+    warnings.push("the channel holds too few samples to estimate its spectrum");
+    return noEmission(pass1, dcSpike, xDb, options.nominalHz ?? null, warnings);
+  }
+  const obw = occupiedBandwidth(psd, { lowerHz: -half, upperHz: half, noiseFloorPerHz: floor });
+  const xdb = xDbBandwidth(psd, { lowerHz: -half, upperHz: half, xDb });
+  const pw = channelPower(psd, { lowerHz: -half, upperHz: half, noiseFloorPerHz: floor, occupiedHz: obw.occupiedHz.value ?? undefined });
+  const features = analogFeatures(iq, fsc, psd, { noiseFloorPerHz: floor, snrDb: pw.snrDb.value, lowerHz: -half, upperHz: half });
+  const decided = options.mode === undefined ? classifyAnalog(features) : { class: options.mode, confidence: 1, method: "given with --mode" };
+  const cls: AnalogClass = decided.class;
+
+  // Figures of the class, and the carrier by the method that suits it (all relative to the channel centre).
+  let carrier: Measurement;
+  let fm: FmFiguresOut | null = null;
+  let am: AmFiguresOut | null = null;
+  let necessary: Measurement = notAvailable("Hz", "47 CFR 2.202(g) / ITU-R SM.1138", "no necessary-bandwidth formula applies to this class");
+  if (cls === "fm") {
+    const f = fmFigures(iq, fsc, { audioBandwidthHz });
+    carrier = f.carrierOffsetHz;
+    const beta = f.modulationIndex.value;
+    const fmod = f.modulatingFrequencyHz.value;
+    const nullIndex =
+      beta !== null && fmod !== null && f.toneHz.value === null
+        ? besselNullIndex(iq, fsc, fmod, beta)
+        : notAvailable("", "Bessel null of the carrier line (A&S Table 9.5)", "needs a single modulating tone");
+    fm = {
+      peakDeviationHz: f.peakDeviationHz,
+      positiveDeviationHz: f.positiveDeviationHz,
+      negativeDeviationHz: f.negativeDeviationHz,
+      rmsDeviationHz: f.rmsDeviationHz,
+      rawPeakDeviationHz: f.rawPeakDeviationHz,
+      modulatingFrequencyHz: f.modulatingFrequencyHz,
+      modulationIndex: f.modulationIndex,
+      carsonBandwidthHz: f.carsonBandwidthHz,
+      toneHz: f.toneHz,
+      toneStandardHz: f.standardToneHz,
+      toneDeviationHz: f.toneDeviationHz,
+      besselNullIndex: nullIndex,
+      audioBandwidthHz: f.audioBandwidthHz,
+      trace: { timeS: shiftTimes(f.trace.timeS, pass2.startS), min: f.trace.minHz, max: f.trace.maxHz },
+    };
+    const d = f.peakDeviationHz.value;
+    if (d !== null && fmod !== null) {
+      necessary = measurement(
+        necessaryBandwidthFmHz(fmod, d),
+        "Hz",
+        null,
+        `47 CFR 2.202(g) F3E: 2M + 2DK, K = 1, with the measured M = ${fmod.toFixed(0)} Hz (dominant modulating frequency) and D = ${d.toFixed(0)} Hz`,
+      );
+    }
+  } else if (cls === "cw" || cls === "am") {
+    carrier = toneFrequency(iq, fsc);
+    if (cls === "am") {
+      const a = amFigures(iq, fsc, { audioBandwidthHz });
+      const vc = a.carrierAmplitudeFs.value ?? 1;
+      am = {
+        modulationDepthPercent: a.modulationDepthPercent,
+        positiveDepthPercent: a.positiveDepthPercent,
+        negativeDepthPercent: a.negativeDepthPercent,
+        modulatingFrequencyHz: a.modulatingFrequencyHz,
+        upperSidebandDbc: a.sidebandLevelsDbc.upper,
+        lowerSidebandDbc: a.sidebandLevelsDbc.lower,
+        trace: {
+          timeS: shiftTimes(a.trace.timeS, pass2.startS),
+          min: Array.from(a.trace.minFs, (v) => (v / vc - 1) * 100),
+          max: Array.from(a.trace.maxFs, (v) => (v / vc - 1) * 100),
+        },
+      };
+      const m = a.modulatingFrequencyHz.value;
+      if (m !== null) {
+        necessary = measurement(necessaryBandwidthAmHz(m), "Hz", null, `47 CFR 2.202(g) A3E: 2M with the measured M = ${m.toFixed(0)} Hz`);
+      }
+    }
+  } else {
+    carrier = psdCentroidHz(psd, -half, half, floor);
+  }
+
+  // From the channel to the capture: add the channel offset, then undo the receiver clock error.
+  const toCapture = (m: Measurement): Measurement =>
+    m.value === null ? m : { ...m, value: correctedOffsetHz(meta, m.value + offsetHz) };
+  const carrierOffset = toCapture(carrier);
+  const carrierRf =
+    meta.centerHz === null || carrierOffset.value === null
+      ? notAvailable("Hz", carrier.method, "the capture's centre frequency is unknown (give --center)")
+      : { ...carrierOffset, value: meta.centerHz + carrierOffset.value };
+  const nominalHz = options.nominalHz ?? null;
+  const errorPpm =
+    nominalHz === null
+      ? notAvailable("Ppm", "(measured − assigned)/assigned × 1e6", "no assigned frequency (give --nominal)")
+      : frequencyErrorPpmOf(carrierRf as Measurement<"Hz">, nominalHz);
+  const designator = emissionDesignator({ class: cls, bandwidthHz: obw.occupiedHz.value });
+  if (designator.reason !== null) warnings.push(`no emission designator: ${designator.reason}`);
+
+  return {
+    channel: {
+      offsetHz,
+      widthHz,
+      givenByUser,
+      sampleRateHz: fsc,
+      decimation: pass2.decimation,
+      measuredS: iq.length / 2 / fsc,
+    },
+    dcSpike,
+    carrier: { offsetHz: carrierOffset, frequencyHz: carrierRf, errorPpm, nominalHz },
+    bandwidth: {
+      occupiedHz: obw.occupiedHz,
+      lowerEdgeHz: toCapture(obw.lowerEdgeHz),
+      upperEdgeHz: toCapture(obw.upperEdgeHz),
+      xDbHz: xdb.bandwidthHz,
+      xDbLowerEdgeHz: toCapture(xdb.lowerEdgeHz),
+      xDbUpperEdgeHz: toCapture(xdb.upperEdgeHz),
+      xDb,
+      resolutionHz: psd.enbwHz,
+    },
+    power: { channelDbfs: pw.channelDbfs, snrDb: pw.snrDb },
+    modulation: {
+      class: cls,
+      order: null,
+      confidence: decided.confidence,
+      forced: options.mode !== undefined,
+      method: decided.method,
+      features: numericFeatures(features),
+    },
+    fm,
+    am,
+    emission: {
+      designator: designator.designator,
+      necessaryBandwidthHz: necessary,
+      method: "ITU Radio Regulations Appendix 1: bandwidth code from the measured 99 % occupied bandwidth, symbols from the class",
+    },
+    channelPsd: psd,
+    noiseFloorDbfsPerHz: pass1.noiseFloor.dbfsPerHz,
+    warnings,
+  };
+}
+
+function checkOptions(options: MeasureEmissionOptions, meta: CaptureMeta): void {
+  const fs = meta.sampleRateHz;
+  const c = options.channel;
+  if (c !== undefined) {
+    if (!(c.widthHz > 0)) throw new UsageError("--channel", `width ${c.widthHz} Hz must be greater than 0`);
+    if (c.offsetHz - c.widthHz / 2 < -fs / 2 || c.offsetHz + c.widthHz / 2 > fs / 2) {
+      throw new UsageError(
+        "--channel",
+        `${c.offsetHz} Hz ± ${c.widthHz / 2} Hz reaches outside the capture's ±${fs / 2} Hz (rate ${fs} S/s of ${meta.path})`,
+      );
+    }
+  }
+  if (options.nominalHz !== undefined && meta.centerHz === null) {
+    throw new UsageError("--nominal", `needs the capture's centre frequency: give --center (${meta.path} does not say it)`);
+  }
+  if (options.xDb !== undefined && !(options.xDb > 0 && options.xDb <= 100)) {
+    throw new UsageError("--xdb", `${options.xDb} dB must be between 0 and 100`);
+  }
+  if (options.audioBandwidthHz !== undefined && !(options.audioBandwidthHz >= 100)) {
+    throw new UsageError("--audio-bw", `${options.audioBandwidthHz} Hz must be at least 100 Hz`);
+  }
+}
+
+/**
+ * Welch PSD of the channel baseband, with bins narrow enough to resolve its bandwidth (about
+ * 1/400 of the channel width, common practice: RBW ≤ 1 % of the OBW, REFERENCES.md §3) and at
+ * least 8 segments. Null when the channel holds fewer than 256 samples.
+ */
+function channelPsd(iq: Float32Array, fs: number, widthHz: number): WelchPsd | null {
+  const samples = iq.length / 2;
+  if (samples < 256) return null;
+  let n = 256;
+  while (n < 65536 && fs / n > widthHz / 400) n *= 2;
+  while (n > 256 && samples < 4.5 * n) n /= 2;
+  const welch = new WelchAccumulator({ fftLength: n, sampleRateHz: fs });
+  welch.push(iq, 0);
+  return welch.finish();
+}
+
+function shiftTimes(t: ArrayLike<number>, startS: number): Float64Array {
+  const out = new Float64Array(t.length);
+  for (let i = 0; i < t.length; i++) out[i] = (t[i] as number) + startS;
+  return out;
+}
+
+function numericFeatures(features: object): Record<string, number> {
+  const out: Record<string, number> = {};
+  for (const [k, v] of Object.entries(features)) if (typeof v === "number" && Number.isFinite(v)) out[k] = v;
+  return out;
+}
+
+function noEmission(
+  pass1: Pass1Result,
+  dcSpike: EmissionFigures["dcSpike"],
+  xDb: number,
+  nominalHz: number | null,
+  warnings: string[],
+): EmissionFigures {
+  const none = (unit: string, what: string): Measurement => notAvailable(unit, what, "no emission to measure");
+  return {
+    channel: { offsetHz: 0, widthHz: 0, givenByUser: false, sampleRateHz: 0, decimation: 1, measuredS: 0 },
+    dcSpike,
+    carrier: { offsetHz: none("Hz", "carrier"), frequencyHz: none("Hz", "carrier"), errorPpm: none("Ppm", "frequency error"), nominalHz },
+    bandwidth: {
+      occupiedHz: none("Hz", "ITU-R SM.328 99 % power"),
+      lowerEdgeHz: none("Hz", "OBW edge"),
+      upperEdgeHz: none("Hz", "OBW edge"),
+      xDbHz: none("Hz", "x-dB bandwidth"),
+      xDbLowerEdgeHz: none("Hz", "x-dB edge"),
+      xDbUpperEdgeHz: none("Hz", "x-dB edge"),
+      xDb,
+      resolutionHz: pass1.psd.enbwHz,
+    },
+    power: { channelDbfs: none("Dbfs", "channel power"), snrDb: none("Db", "SNR") },
+    modulation: { class: "noise", order: null, confidence: 1, forced: false, method: "no region of the PSD stands 10 dB above the noise floor", features: {} },
+    fm: null,
+    am: null,
+    emission: { designator: null, necessaryBandwidthHz: none("Hz", "necessary bandwidth"), method: "no emission" },
+    channelPsd: null,
+    noiseFloorDbfsPerHz: pass1.noiseFloor.dbfsPerHz,
+    warnings,
+  };
+}

@@ -1,0 +1,98 @@
+/**
+ * The figures of a `measure` report: the channel's PSD with its occupied-bandwidth edges, the
+ * x-dB line and the carrier marked; the instantaneous frequency (FM) or the envelope (AM) over
+ * time with the peak lines. Numbers in, PNG bytes out; the caller writes them.
+ */
+import { binFrequencyHz, powerToDb, type WelchPsd } from "../dsp/index.js";
+import { renderLineFigure, type MarkerLine } from "../render/index.js";
+import { formatHz } from "./format.js";
+
+export interface SpectrumFigureInput {
+  readonly title: string;
+  /** PSD of the channel baseband (FS²/Hz), centred order, 0 Hz = the channel centre. */
+  readonly psd: WelchPsd;
+  /** Offset of the channel centre from the capture centre, and the channel's width, Hz. */
+  readonly channelOffsetHz: number;
+  readonly channelWidthHz: number;
+  /** Capture centre, when known: the axis then shows absolute RF. */
+  readonly centerHz: number | null;
+  /** All offsets from the capture centre, Hz. */
+  readonly lowerEdgeHz: number | null;
+  readonly upperEdgeHz: number | null;
+  readonly carrierOffsetHz: number | null;
+  readonly xDb: number;
+  readonly xDbLevelDbfsPerHz: number | null;
+  readonly noiseFloorDbfsPerHz: number;
+  readonly widthPx?: number;
+  readonly heightPx?: number;
+}
+
+export function spectrumFigure(input: SpectrumFigureInput): Buffer {
+  const { psd } = input;
+  const base = input.centerHz ?? 0;
+  // The channel only: beyond it the PSD shows the extraction filter's skirts, not the emission.
+  const xs: number[] = [];
+  const ys: number[] = [];
+  for (let i = 0; i < psd.fftLength; i++) {
+    const f = binFrequencyHz(psd, i);
+    if (Math.abs(f) > input.channelWidthHz / 2) continue;
+    xs.push(base + input.channelOffsetHz + f);
+    ys.push(powerToDb(psd.densityPerHz[i] as number));
+  }
+  const x = Float64Array.from(xs);
+  const y = Float64Array.from(ys);
+  const markers: MarkerLine[] = [];
+  if (input.lowerEdgeHz !== null) markers.push({ orientation: "vertical", value: base + input.lowerEdgeHz, label: "99 % OBW lower" });
+  if (input.upperEdgeHz !== null) markers.push({ orientation: "vertical", value: base + input.upperEdgeHz, label: "99 % OBW upper" });
+  if (input.carrierOffsetHz !== null) {
+    markers.push({ orientation: "vertical", value: base + input.carrierOffsetHz, label: "carrier", colour: [30, 130, 76] });
+  }
+  if (input.xDbLevelDbfsPerHz !== null) {
+    markers.push({ orientation: "horizontal", value: input.xDbLevelDbfsPerHz, label: `${input.xDb} dB below peak`, colour: [205, 92, 20] });
+  }
+  markers.push({ orientation: "horizontal", value: input.noiseFloorDbfsPerHz, label: "noise floor", colour: [96, 100, 108] });
+  const png = renderLineFigure({
+    title: `PSD of the channel: ${input.title}`,
+    subtitle: `Welch ${psd.fftLength}-point ${psd.window}, ${psd.segmentCount} segments, RBW ${formatHz(psd.enbwHz)}, ` +
+      `${input.centerHz === null ? "offset from the capture centre" : "absolute RF"}`,
+    x: { name: input.centerHz === null ? "Frequency offset" : "Frequency", quantity: { kind: "hertz" } },
+    y: { name: "PSD", quantity: { kind: "linear", unit: "dBFS/Hz" }, min: input.noiseFloorDbfsPerHz - 20 },
+    series: [{ label: "PSD (Welch mean)", xValues: x, yValues: y }],
+    markers,
+    widthPx: input.widthPx ?? 1200,
+    heightPx: input.heightPx ?? 700,
+  });
+  return png.png;
+}
+
+export interface TraceFigureInput {
+  readonly title: string;
+  readonly subtitle: string;
+  readonly timeS: ArrayLike<number>;
+  readonly min: ArrayLike<number>;
+  readonly max: ArrayLike<number>;
+  readonly yName: string;
+  /** "hertz" for instantaneous frequency, or a linear unit such as "% of carrier". */
+  readonly yUnit: "hertz" | string;
+  readonly markers: readonly MarkerLine[];
+  readonly widthPx?: number;
+  readonly heightPx?: number;
+}
+
+/** A min/max trace over time (one pair of values a time bucket), drawn as two lines. */
+export function traceFigure(input: TraceFigureInput): Buffer {
+  const quantity = input.yUnit === "hertz" ? ({ kind: "hertz" } as const) : ({ kind: "linear", unit: input.yUnit } as const);
+  return renderLineFigure({
+    title: input.title,
+    subtitle: input.subtitle,
+    x: { name: "Time", quantity: { kind: "seconds" } },
+    y: { name: input.yName, quantity },
+    series: [
+      { label: "maximum in each time slice", xValues: input.timeS, yValues: input.max },
+      { label: "minimum in each time slice", xValues: input.timeS, yValues: input.min },
+    ],
+    markers: input.markers,
+    widthPx: input.widthPx ?? 1200,
+    heightPx: input.heightPx ?? 600,
+  }).png;
+}

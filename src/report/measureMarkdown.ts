@@ -1,0 +1,120 @@
+/**
+ * The `measure` report for a person (report.md): who measured what, from which file (with its
+ * SHA-256 so that the file can be checked again), the figures in a table with units and
+ * uncertainty, and the method of each in one line. Built from the JSON report alone, so the two
+ * never disagree.
+ */
+import { basename } from "node:path";
+import type { MeasureReport } from "./measureReport.js";
+import { formatHz, formatRate, formatSeconds } from "./format.js";
+
+interface Row {
+  readonly label: string;
+  readonly path: string;
+  readonly value: number | null;
+  readonly unit: string;
+  readonly digits: number;
+}
+
+function cell(r: MeasureReport, row: Row): [string, string, string] | null {
+  if (row.value === null) return null;
+  const u = r.uncertainty[row.path];
+  const value = `${row.value.toFixed(row.digits)} ${row.unit}`.trim();
+  const unc = u === undefined ? "" : `± ${u.toFixed(Math.max(row.digits, u < 1 ? 2 : 0))} ${row.unit}`.trim();
+  return [row.label, value, unc];
+}
+
+export function measureMarkdown(r: MeasureReport, figures: readonly string[]): string {
+  const c = r.capture;
+  const rows: Row[] = [
+    { label: "Carrier offset", path: "carrier.offsetHz", value: r.carrier.offsetHz, unit: "Hz", digits: 1 },
+    { label: "Carrier frequency", path: "carrier.frequencyHz", value: r.carrier.frequencyHz, unit: "Hz", digits: 1 },
+    { label: "Frequency error", path: "carrier.errorPpm", value: r.carrier.errorPpm, unit: "ppm", digits: 3 },
+    { label: "Occupied bandwidth (99 %)", path: "bandwidth.occupiedHz", value: r.bandwidth.occupiedHz, unit: "Hz", digits: 0 },
+    { label: "OBW lower edge (offset)", path: "bandwidth.lowerEdgeHz", value: r.bandwidth.lowerEdgeHz, unit: "Hz", digits: 0 },
+    { label: "OBW upper edge (offset)", path: "bandwidth.upperEdgeHz", value: r.bandwidth.upperEdgeHz, unit: "Hz", digits: 0 },
+    { label: `${r.bandwidth.xDb} dB bandwidth`, path: "bandwidth.xDbHz", value: r.bandwidth.xDbHz, unit: "Hz", digits: 0 },
+    { label: "Channel power", path: "power.channelDbfs", value: r.power.channelDbfs, unit: "dBFS", digits: 2 },
+    { label: "SNR (in channel)", path: "power.snrDb", value: r.power.snrDb, unit: "dB", digits: 1 },
+  ];
+  if (r.fm !== null) {
+    rows.push(
+      { label: `Peak deviation (audio ≤ ${formatHz(r.fm.audioBandwidthHz)})`, path: "fm.peakDeviationHz", value: r.fm.peakDeviationHz, unit: "Hz", digits: 0 },
+      { label: "Positive deviation", path: "fm.positiveDeviationHz", value: r.fm.positiveDeviationHz, unit: "Hz", digits: 0 },
+      { label: "Negative deviation", path: "fm.negativeDeviationHz", value: r.fm.negativeDeviationHz, unit: "Hz", digits: 0 },
+      { label: "RMS deviation", path: "fm.rmsDeviationHz", value: r.fm.rmsDeviationHz, unit: "Hz", digits: 0 },
+      { label: "Peak deviation, unfiltered", path: "fm.rawPeakDeviationHz", value: r.fm.rawPeakDeviationHz, unit: "Hz", digits: 0 },
+      { label: "Modulating frequency", path: "fm.modulatingFrequencyHz", value: r.fm.modulatingFrequencyHz, unit: "Hz", digits: 1 },
+      { label: "Modulation index", path: "fm.modulationIndex", value: r.fm.modulationIndex, unit: "", digits: 3 },
+      { label: "Carson bandwidth", path: "fm.carsonBandwidthHz", value: r.fm.carsonBandwidthHz, unit: "Hz", digits: 0 },
+      { label: "Sub-audible tone", path: "fm.toneHz", value: r.fm.toneHz, unit: "Hz", digits: 2 },
+      { label: "Sub-audible tone deviation", path: "fm.toneDeviationHz", value: r.fm.toneDeviationHz, unit: "Hz", digits: 0 },
+      { label: "Index from the carrier null", path: "fm.besselNullIndex", value: r.fm.besselNullIndex, unit: "", digits: 3 },
+    );
+  }
+  if (r.am !== null) {
+    rows.push(
+      { label: "Modulation depth", path: "am.modulationDepthPercent", value: r.am.modulationDepthPercent, unit: "%", digits: 1 },
+      { label: "Positive peak depth m+", path: "am.positiveDepthPercent", value: r.am.positiveDepthPercent, unit: "%", digits: 1 },
+      { label: "Negative peak depth m−", path: "am.negativeDepthPercent", value: r.am.negativeDepthPercent, unit: "%", digits: 1 },
+      { label: "Modulating frequency", path: "am.modulatingFrequencyHz", value: r.am.modulatingFrequencyHz, unit: "Hz", digits: 1 },
+      { label: "Upper sideband", path: "am.upperSidebandDbc", value: r.am.upperSidebandDbc, unit: "dBc", digits: 2 },
+      { label: "Lower sideband", path: "am.lowerSidebandDbc", value: r.am.lowerSidebandDbc, unit: "dBc", digits: 2 },
+    );
+  }
+  rows.push({ label: "Necessary bandwidth (formula)", path: "emission.necessaryBandwidthHz", value: r.emission.necessaryBandwidthHz, unit: "Hz", digits: 0 });
+  const table = rows
+    .map((row) => cell(r, row))
+    .filter((x): x is [string, string, string] => x !== null)
+    .map(([a, b, u]) => `| ${a} | ${b} | ${u} |`);
+  const methods = Object.entries(r.methods).map(([k, v]) => `- \`${k}\`: ${v}`);
+  const q = r.quality;
+  const lines = [
+    `# Emission measurement: ${basename(c.path)}`,
+    "",
+    `| | |`,
+    `| --- | --- |`,
+    `| File | \`${c.path}\` |`,
+    `| SHA-256 | \`${c.sha256}\` |`,
+    `| Format | ${c.container}, ${c.format} |`,
+    `| Sample rate | ${formatRate(c.sampleRateHz)} |`,
+    `| Centre | ${c.centerHz === null ? "unknown" : formatHz(c.centerHz)}${c.ppm !== 0 ? `, receiver clock corrected by ${c.ppm} ppm` : ""} |`,
+    `| Analysed | ${formatSeconds(c.durationS)} from ${formatSeconds(c.startS)} (${c.samples} of ${c.fileSamples} samples) |`,
+    ...(c.datetime === null ? [] : [`| Recorded | ${c.datetime} |`]),
+    `| Channel | ${formatHz(r.channel.offsetHz)} offset, ${formatHz(r.channel.widthHz)} wide${r.channel.givenByUser ? " (given)" : " (found)"}, decimated ×${r.channel.decimation} to ${formatRate(r.channel.sampleRateHz)} |`,
+    `| Measured | ${r.measuredAt} with ${r.tool.name} ${r.tool.version} |`,
+    "",
+    `## Result`,
+    "",
+    `Class **${r.modulation.class}**${r.modulation.forced ? " (given with --mode)" : ` (confidence ${(r.modulation.confidence * 100).toFixed(0)} %)`}` +
+      (r.emission.designator === null ? ", no emission designator." : `, emission designator **${r.emission.designator}**.`),
+    "",
+    `| Figure | Value | Uncertainty (k = 2) |`,
+    `| --- | --- | --- |`,
+    ...table,
+    "",
+    `## Capture health`,
+    "",
+    `Clipping ${q.clippingPercent.toFixed(4)} % · DC offset ${q.dcOffsetDbfs.toFixed(1)} dBFS` +
+      `${q.dcSpikeDbfs === null ? "" : ` (receiver DC spike at ${q.dcSpikeDbfs.toFixed(1)} dBFS, not taken for the carrier)`}` +
+      ` · IQ imbalance ${q.iqGainImbalanceDb.toFixed(2)} dB / ${q.iqPhaseImbalanceDeg.toFixed(2)}° (image rejection ${q.imageRejectionDb.toFixed(1)} dB)` +
+      ` · noise floor ${q.noiseFloorDbfsPerHz.toFixed(1)} dBFS/Hz · non-finite samples ${q.nonFiniteSamples}`,
+    "",
+    `## Methods`,
+    "",
+    ...methods,
+    "",
+    ...(r.warnings.length === 0 ? [] : [`## Warnings`, "", ...r.warnings.map((w) => `- ${w}`), ""]),
+    ...(Object.keys(r.unavailable).length === 0
+      ? []
+      : [`## Figures not given`, "", ...Object.entries(r.unavailable).map(([k, v]) => `- \`${k}\`: ${v}`), ""]),
+    ...(figures.length === 0 ? [] : [`## Figures`, "", ...figures.map((f) => `![${f}](${f})`), ""]),
+    `---`,
+    "",
+    `Results are indicative. They come from a recording and depend on the receiver's calibration (frequency`,
+    `reference, gain flatness, IQ balance, dynamic range). The licence and local regulation decide what applies;`,
+    `formal compliance evidence comes from an accredited test laboratory.`,
+    "",
+  ];
+  return lines.join("\n");
+}

@@ -1,0 +1,156 @@
+/**
+ * The `measure` report (interface.md, "Report fields read by scripts"): every field of the
+ * contract is present, `null` where it does not apply; uncertainties (k = 2) keyed by dotted
+ * path; one method line per figure. Numbers only, no I/O.
+ */
+import type { CaptureMeta, SampleSpan } from "../capture/index.js";
+import type { Pass1Result } from "../analysis/index.js";
+import type { EmissionFigures } from "../analysis/emissionFigures.js";
+import type { Measurement } from "../measure/index.js";
+import { TOOL_NAME, TOOL_VERSION } from "../version.js";
+import { captureSection, qualitySection, type CaptureSection, type QualitySection } from "./inspectReport.js";
+
+type N = number | null;
+
+export interface MeasureReport {
+  readonly schema: "iqaudit/report/1";
+  readonly tool: { readonly name: string; readonly version: string };
+  readonly measuredAt: string;
+  readonly capture: CaptureSection;
+  readonly quality: QualitySection & { readonly dcSpikeDbfs: N };
+  readonly channel: EmissionFigures["channel"];
+  readonly carrier: { readonly offsetHz: N; readonly frequencyHz: N; readonly errorPpm: N; readonly nominalHz: N };
+  readonly bandwidth: {
+    readonly occupiedHz: N; readonly lowerEdgeHz: N; readonly upperEdgeHz: N;
+    readonly xDbHz: N; readonly xDb: number; readonly xDbLowerEdgeHz: N; readonly xDbUpperEdgeHz: N;
+    readonly resolutionHz: number;
+  };
+  readonly power: { readonly channelDbfs: N; readonly snrDb: N };
+  readonly modulation: { readonly class: string; readonly order: N; readonly confidence: number; readonly forced: boolean; readonly features: Readonly<Record<string, number>> };
+  readonly fm: {
+    readonly peakDeviationHz: N; readonly positiveDeviationHz: N; readonly negativeDeviationHz: N; readonly rmsDeviationHz: N;
+    readonly rawPeakDeviationHz: N; readonly audioBandwidthHz: number;
+    readonly modulatingFrequencyHz: N; readonly modulationIndex: N; readonly carsonBandwidthHz: N;
+    readonly toneHz: N; readonly toneStandardHz: N; readonly toneDeviationHz: N; readonly besselNullIndex: N;
+  } | null;
+  readonly am: {
+    readonly modulationDepthPercent: N; readonly positiveDepthPercent: N; readonly negativeDepthPercent: N;
+    readonly modulatingFrequencyHz: N; readonly upperSidebandDbc: N; readonly lowerSidebandDbc: N;
+  } | null;
+  readonly digital: { readonly symbolRateBd: N; readonly evmRmsPercent: N; readonly evmPeakPercent: N; readonly merDb: N; readonly symbols: N };
+  readonly fsk: { readonly shiftHz: N; readonly modulationIndex: N };
+  readonly ook: { readonly onOffRatioDb: N; readonly dutyCyclePercent: N };
+  readonly emission: { readonly designator: string | null; readonly necessaryBandwidthHz: N };
+  readonly uncertainty: Readonly<Record<string, number>>;
+  readonly methods: Readonly<Record<string, string>>;
+  /** Why a figure is null, keyed by its dotted path (a figure that does not apply is simply absent here). */
+  readonly unavailable: Readonly<Record<string, string>>;
+  readonly warnings: readonly string[];
+}
+
+/** Collects uncertainty and method of each figure under its dotted path while reading its value. */
+class Ledger {
+  readonly uncertainty: Record<string, number> = {};
+  readonly methods: Record<string, string> = {};
+  readonly unavailable: Record<string, string> = {};
+  readonly warnings: string[] = [];
+  take(path: string, m: Measurement): N {
+    if (m.value !== null && m.uncertainty !== null) this.uncertainty[path] = m.uncertainty;
+    if (m.method !== "") this.methods[path] = m.method;
+    if (m.value === null) {
+      if (m.warnings.length > 0) this.unavailable[path] = m.warnings.join("; ");
+    } else {
+      for (const w of m.warnings) if (!this.warnings.includes(w)) this.warnings.push(`${path}: ${w}`);
+    }
+    return m.value;
+  }
+}
+
+export function buildMeasureReport(
+  meta: CaptureMeta,
+  span: SampleSpan,
+  pass1: Pass1Result,
+  f: EmissionFigures,
+  warnings: readonly string[],
+  measuredAt: Date = new Date(),
+): MeasureReport {
+  const l = new Ledger();
+  const fm = f.fm;
+  const am = f.am;
+  const report: MeasureReport = {
+    schema: "iqaudit/report/1",
+    tool: { name: TOOL_NAME, version: TOOL_VERSION },
+    measuredAt: measuredAt.toISOString(),
+    capture: captureSection(meta, span, pass1.sha256),
+    quality: { ...qualitySection(pass1), dcSpikeDbfs: f.dcSpike.present ? f.dcSpike.levelDbfs : null },
+    channel: f.channel,
+    carrier: {
+      offsetHz: l.take("carrier.offsetHz", f.carrier.offsetHz),
+      frequencyHz: l.take("carrier.frequencyHz", f.carrier.frequencyHz),
+      errorPpm: l.take("carrier.errorPpm", f.carrier.errorPpm),
+      nominalHz: f.carrier.nominalHz,
+    },
+    bandwidth: {
+      occupiedHz: l.take("bandwidth.occupiedHz", f.bandwidth.occupiedHz),
+      lowerEdgeHz: l.take("bandwidth.lowerEdgeHz", f.bandwidth.lowerEdgeHz),
+      upperEdgeHz: l.take("bandwidth.upperEdgeHz", f.bandwidth.upperEdgeHz),
+      xDbHz: l.take("bandwidth.xDbHz", f.bandwidth.xDbHz),
+      xDb: f.bandwidth.xDb,
+      xDbLowerEdgeHz: l.take("bandwidth.xDbLowerEdgeHz", f.bandwidth.xDbLowerEdgeHz),
+      xDbUpperEdgeHz: l.take("bandwidth.xDbUpperEdgeHz", f.bandwidth.xDbUpperEdgeHz),
+      resolutionHz: f.bandwidth.resolutionHz,
+    },
+    power: {
+      channelDbfs: l.take("power.channelDbfs", f.power.channelDbfs),
+      snrDb: l.take("power.snrDb", f.power.snrDb),
+    },
+    modulation: {
+      class: f.modulation.class,
+      order: f.modulation.order,
+      confidence: f.modulation.confidence,
+      forced: f.modulation.forced,
+      features: f.modulation.features,
+    },
+    fm:
+      fm === null
+        ? null
+        : {
+            peakDeviationHz: l.take("fm.peakDeviationHz", fm.peakDeviationHz),
+            positiveDeviationHz: l.take("fm.positiveDeviationHz", fm.positiveDeviationHz),
+            negativeDeviationHz: l.take("fm.negativeDeviationHz", fm.negativeDeviationHz),
+            rmsDeviationHz: l.take("fm.rmsDeviationHz", fm.rmsDeviationHz),
+            rawPeakDeviationHz: l.take("fm.rawPeakDeviationHz", fm.rawPeakDeviationHz),
+            audioBandwidthHz: fm.audioBandwidthHz,
+            modulatingFrequencyHz: l.take("fm.modulatingFrequencyHz", fm.modulatingFrequencyHz),
+            modulationIndex: l.take("fm.modulationIndex", fm.modulationIndex),
+            carsonBandwidthHz: l.take("fm.carsonBandwidthHz", fm.carsonBandwidthHz),
+            toneHz: l.take("fm.toneHz", fm.toneHz),
+            toneStandardHz: fm.toneStandardHz,
+            toneDeviationHz: l.take("fm.toneDeviationHz", fm.toneDeviationHz),
+            besselNullIndex: l.take("fm.besselNullIndex", fm.besselNullIndex),
+          },
+    am:
+      am === null
+        ? null
+        : {
+            modulationDepthPercent: l.take("am.modulationDepthPercent", am.modulationDepthPercent),
+            positiveDepthPercent: l.take("am.positiveDepthPercent", am.positiveDepthPercent),
+            negativeDepthPercent: l.take("am.negativeDepthPercent", am.negativeDepthPercent),
+            modulatingFrequencyHz: l.take("am.modulatingFrequencyHz", am.modulatingFrequencyHz),
+            upperSidebandDbc: l.take("am.upperSidebandDbc", am.upperSidebandDbc),
+            lowerSidebandDbc: l.take("am.lowerSidebandDbc", am.lowerSidebandDbc),
+          },
+    digital: { symbolRateBd: null, evmRmsPercent: null, evmPeakPercent: null, merDb: null, symbols: null },
+    fsk: { shiftHz: null, modulationIndex: null },
+    ook: { onOffRatioDb: null, dutyCyclePercent: null },
+    emission: {
+      designator: f.emission.designator,
+      necessaryBandwidthHz: l.take("emission.necessaryBandwidthHz", f.emission.necessaryBandwidthHz),
+    },
+    uncertainty: l.uncertainty,
+    methods: { ...l.methods, "modulation.class": f.modulation.method, "emission.designator": f.emission.method },
+    unavailable: l.unavailable,
+    warnings: [...warnings, ...f.warnings.filter((w) => !warnings.includes(w)), ...l.warnings.filter((w) => !warnings.includes(w) && !f.warnings.includes(w))],
+  };
+  return report;
+}

@@ -1,0 +1,44 @@
+/** The `measure` report as a short text for a person on stdout (report.md is the full one). */
+import type { MeasureReport } from "./measureReport.js";
+import { alignedRows, formatHz } from "./format.js";
+
+function withU(r: MeasureReport, path: string, value: number | null, show: (x: number) => string): string {
+  if (value === null) return "n/a";
+  const u = r.uncertainty[path];
+  return u === undefined ? show(value) : `${show(value)} ± ${show(u)}`;
+}
+
+export function measureText(r: MeasureReport, files: readonly string[]): string {
+  const hz = (x: number): string => formatHz(x, 3);
+  const rows: [string, string][] = [
+    ["class", `${r.modulation.class}${r.modulation.forced ? " (given)" : `, confidence ${(r.modulation.confidence * 100).toFixed(0)} %`}`],
+    ["designator", r.emission.designator ?? "n/a"],
+    ["carrier offset", withU(r, "carrier.offsetHz", r.carrier.offsetHz, hz)],
+    ...(r.carrier.frequencyHz === null ? [] : ([["carrier frequency", withU(r, "carrier.frequencyHz", r.carrier.frequencyHz, hz)]] as [string, string][])),
+    ...(r.carrier.errorPpm === null ? [] : ([["frequency error", withU(r, "carrier.errorPpm", r.carrier.errorPpm, (x) => `${x.toFixed(3)} ppm`)]] as [string, string][])),
+    ["occupied bandwidth", withU(r, "bandwidth.occupiedHz", r.bandwidth.occupiedHz, hz)],
+    [`${r.bandwidth.xDb} dB bandwidth`, withU(r, "bandwidth.xDbHz", r.bandwidth.xDbHz, hz)],
+    ["channel power", withU(r, "power.channelDbfs", r.power.channelDbfs, (x) => `${x.toFixed(2)} dBFS`)],
+    ["SNR", withU(r, "power.snrDb", r.power.snrDb, (x) => `${x.toFixed(1)} dB`)],
+  ];
+  if (r.fm !== null) {
+    rows.push(
+      ["peak deviation", `${withU(r, "fm.peakDeviationHz", r.fm.peakDeviationHz, hz)} (audio ≤ ${formatHz(r.fm.audioBandwidthHz)})`],
+      ["  + / −", `${withU(r, "fm.positiveDeviationHz", r.fm.positiveDeviationHz, hz)} / ${withU(r, "fm.negativeDeviationHz", r.fm.negativeDeviationHz, hz)}`],
+      ["RMS deviation", withU(r, "fm.rmsDeviationHz", r.fm.rmsDeviationHz, hz)],
+      ["modulating frequency", withU(r, "fm.modulatingFrequencyHz", r.fm.modulatingFrequencyHz, hz)],
+      ["modulation index", withU(r, "fm.modulationIndex", r.fm.modulationIndex, (x) => x.toFixed(3))],
+      ["Carson bandwidth", withU(r, "fm.carsonBandwidthHz", r.fm.carsonBandwidthHz, hz)],
+      ["sub-audible tone", r.fm.toneHz === null ? "none found" : `${r.fm.toneHz.toFixed(2)} Hz${r.fm.toneStandardHz === null ? "" : ` (standard ${r.fm.toneStandardHz.toFixed(1)} Hz)`}, deviation ${r.fm.toneDeviationHz === null ? "n/a" : formatHz(r.fm.toneDeviationHz)}`],
+    );
+  }
+  if (r.am !== null) {
+    rows.push(
+      ["modulation depth", withU(r, "am.modulationDepthPercent", r.am.modulationDepthPercent, (x) => `${x.toFixed(1)} %`)],
+      ["  m+ / m−", `${withU(r, "am.positiveDepthPercent", r.am.positiveDepthPercent, (x) => `${x.toFixed(1)} %`)} / ${withU(r, "am.negativeDepthPercent", r.am.negativeDepthPercent, (x) => `${x.toFixed(1)} %`)}`],
+      ["modulating frequency", withU(r, "am.modulatingFrequencyHz", r.am.modulatingFrequencyHz, hz)],
+    );
+  }
+  const out = files.length === 0 ? "" : `\nWritten: ${files.join(", ")}\n`;
+  return `${r.capture.path}\n${alignedRows(rows)}\n${out}Results are indicative; see iqaudit --help for cautions.\n`;
+}

@@ -1,0 +1,134 @@
+// The measure command end to end on synthetic captures with known parameters: the contract's
+// fields are all present (null where they do not apply), the figures agree with the closed
+// forms they were made from, and the report folder is complete.
+import { existsSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { PNG } from "pngjs";
+import { describe, expect, it } from "vitest";
+import { encodeSamples } from "../../src/capture/index.js";
+import { measureCommand } from "../../src/commands/measure.js";
+import { SeededRandom, amFromAudio, complexNoise, fmFromAudio, frequencyShift, toneAudio } from "../../src/scenario/index.js";
+import { runCli } from "../helpers/runCli.js";
+
+const dir = mkdtempSync(join(tmpdir(), "iqaudit-measure-"));
+const fs = 250_000;
+const n = 500_000; // 2 s
+
+function withNoise(iq: Float64Array, variance: number, seed: number): Float64Array {
+  const noise = new Float64Array(iq.length);
+  complexNoise(new SeededRandom(seed), noise, variance);
+  for (let k = 0; k < iq.length; k++) iq[k] = (iq[k] as number) + (noise[k] as number);
+  return iq;
+}
+
+/** Tone FM: 1 kHz at 5 kHz peak deviation, amplitude 0.3, at +40 kHz from the capture centre. */
+function toneFmCapture(): string {
+  const audio = toneAudio(0, n, fs, 1000);
+  const { iq } = fmFromAudio(audio, fs, 5000, 0, 0.3);
+  const shifted = frequencyShift(iq, fs, 40_000);
+  // Noise of total variance 1e-6 over 250 kHz: about 40 dB SNR in a 16 kHz channel.
+  const p = join(dir, "tonefm_250ksps.cf32");
+  writeFileSync(p, encodeSamples("cf32_le", withNoise(shifted, 1e-6, 11)));
+  return p;
+}
+
+const REPORT_FIELDS: Record<string, readonly string[]> = {
+  capture: ["path", "sha256", "container", "format", "sampleRateHz", "centerHz", "samples", "fileSamples", "durationS"],
+  quality: ["clippingPercent", "dcOffsetDbfs", "iqGainImbalanceDb", "iqPhaseImbalanceDeg", "imageRejectionDb", "noiseFloorDbfsPerHz", "nonFiniteSamples"],
+  carrier: ["offsetHz", "frequencyHz", "errorPpm"],
+  bandwidth: ["occupiedHz", "lowerEdgeHz", "upperEdgeHz", "xDbHz", "xDb", "resolutionHz"],
+  power: ["channelDbfs", "snrDb"],
+  modulation: ["class", "order", "confidence"],
+  digital: ["symbolRateBd", "evmRmsPercent", "evmPeakPercent", "merDb", "symbols"],
+  fsk: ["shiftHz", "modulationIndex"],
+  ook: ["onOffRatioDb", "dutyCyclePercent"],
+  emission: ["designator", "necessaryBandwidthHz"],
+};
+
+describe("measureCommand(path, options)", () => {
+  const fmPath = toneFmCapture();
+
+  it("reports every field of the contract (interface.md, report fields), null where it does not apply", async () => {
+    const { report } = await measureCommand(fmPath, { capture: { centerHz: 156.8e6 } });
+    const r = report as unknown as Record<string, Record<string, unknown>>;
+    expect(r.schema).toBe("iqaudit/report/1");
+    for (const [section, fields] of Object.entries(REPORT_FIELDS)) {
+      for (const field of fields) expect(r[section], `${section}.${field}`).toHaveProperty(field);
+    }
+    expect(r.fm).not.toBeNull();
+    expect(r.am).toBeNull();
+    expect(typeof report.uncertainty).toBe("object");
+  });
+
+  it("measures tone FM: carrier, deviation, index, Carson, designator (theory; Carson's rule; RR Appendix 1)", async () => {
+    const { report } = await measureCommand(fmPath, { capture: { centerHz: 156.8e6 }, nominalHz: 156.84e6 });
+    expect(report.modulation.class).toBe("fm");
+    // Carrier at +40 kHz exactly: error 0 ppm within a few Hz (0.05 ppm at 156.84 MHz = 7.8 Hz).
+    expect(Math.abs((report.carrier.offsetHz as number) - 40_000)).toBeLessThan(5);
+    expect(Math.abs(report.carrier.errorPpm as number)).toBeLessThan(0.05);
+    // Peak deviation 5 kHz within 1 % (issue 3), modulating frequency 1 kHz, beta = 5.
+    expect(report.fm?.peakDeviationHz).toBeGreaterThan(4950);
+    expect(report.fm?.peakDeviationHz).toBeLessThan(5050);
+    expect(Math.abs((report.fm?.modulatingFrequencyHz as number) - 1000)).toBeLessThan(5);
+    expect(Math.abs((report.fm?.modulationIndex as number) - 5)).toBeLessThan(0.05);
+    // Carson: 2 (5000 + 1000) = 12 kHz (REFERENCES.md §2).
+    expect(Math.abs((report.fm?.carsonBandwidthHz as number) - 12_000)).toBeLessThan(120);
+    // 99 % OBW of tone FM with beta = 5: ±6 lines hold 99.36 % (REFERENCES.md §1) → about 12 kHz,
+    // within one line spacing (1 kHz).
+    expect(Math.abs((report.bandwidth.occupiedHz as number) - 12_000)).toBeLessThan(1000);
+    // F3E: frequency modulation, analogue, telephony (RR Appendix 1 §4); 4-character bandwidth code.
+    expect(report.emission.designator).toMatch(/^[1-9][0-9HKMG]{3}F3E$/);
+  });
+
+  it("writes a complete report folder: report.json last, report.md, PNGs that decode (pngjs)", async () => {
+    const out = join(dir, "fm-report");
+    const { files } = await measureCommand(fmPath, { capture: {}, outDir: out });
+    expect(files[files.length - 1]).toBe(join(out, "report.json"));
+    for (const name of ["report.json", "report.md", "spectrum.png", "spectrogram.png", "deviation.png"]) {
+      expect(existsSync(join(out, name)), name).toBe(true);
+    }
+    const md = readFileSync(join(out, "report.md"), "utf8");
+    expect(md).toMatch(/SHA-256/);
+    expect(md).toMatch(/accredited/);
+    const png = PNG.sync.read(readFileSync(join(out, "spectrum.png")));
+    expect(png.width).toBeGreaterThan(400);
+  });
+
+  it("measures AM depth (theory: m = (Vmax − Vmin)/(Vmax + Vmin))", async () => {
+    const audio = toneAudio(0, n, fs, 1000);
+    const am = frequencyShift(amFromAudio(audio, 70, 0.2), fs, -30_000);
+    const p = join(dir, "am70_250ksps.cf32");
+    writeFileSync(p, encodeSamples("cf32_le", withNoise(am, 1e-7, 5)));
+    const { report } = await measureCommand(p, { capture: {} });
+    expect(report.modulation.class).toBe("am");
+    expect(Math.abs((report.am?.modulationDepthPercent as number) - 70)).toBeLessThan(1);
+    expect(report.emission.designator).toMatch(/A3E$/);
+  });
+});
+
+describe("measure bad input (interface.md, exit codes)", () => {
+  const p = join(dir, "cw_250ksps.cf32");
+  const iq = new Float64Array(2 * 50_000);
+  for (let k = 0; k < 50_000; k++) {
+    iq[2 * k] = 0.2 * Math.cos((2 * Math.PI * 10_000 * k) / fs);
+    iq[2 * k + 1] = 0.2 * Math.sin((2 * Math.PI * 10_000 * k) / fs);
+  }
+  writeFileSync(p, encodeSamples("cf32_le", iq));
+  for (const [what, args, mentions] of [
+    ["unknown --mode", ["--mode", "xyz"], "--mode"],
+    ["malformed --channel", ["--channel", "12k"], "--channel"],
+    ["non-numeric --channel", ["--channel", "a:b"], "--channel"],
+    ["channel outside the capture", ["--channel", "200k:25k"], "--channel"],
+  ] as const) {
+    it(what, () => {
+      const r = runCli(["measure", p, ...args]);
+      expect(r.status, r.stderr).toBe(2);
+      expect(r.stdout).toBe("");
+      const lines = r.stderr.split("\n").filter((l) => l.length > 0);
+      expect(lines).toHaveLength(1);
+      expect(lines[0]).toMatch(/^iqaudit: /);
+      expect(lines[0]).toContain(mentions);
+    });
+  }
+});
