@@ -48,7 +48,7 @@ export interface MeasureEmissionOptions {
   /** Audio low-pass before FM peak deviation and AM depth, Hz (default 3000). */
   readonly audioBandwidthHz?: number | undefined;
   readonly mode?: MeasureMode | undefined;
-  /** Most decimated channel samples kept (default 2^22). */
+  /** Most decimated channel samples kept (default 2^20, PASS2_DEFAULTS). */
   readonly maxChannelSamples?: number | undefined;
   readonly onProgress?: ((doneSamples: number, totalSamples: number) => void) | undefined;
 }

@@ -3,7 +3,8 @@
  * extractor (NCO to baseband, then polyphase decimation to a rate that suits the emission's
  * bandwidth), so that everything measured after it costs in proportion to the emission, not the
  * capture rate. The decimated channel is kept for the measurements, up to `maxSamples` (a fixed
- * bound on memory: 2^22 samples = 32 MiB by default); a longer span is measured over its first
+ * bound on memory: 2^20 samples = 8 MiB by default, and the measurements after it allocate a
+ * few times that); a longer span is measured over its first
  * `maxSamples` decimated samples, with a warning.
  */
 import type { CaptureSource, SampleSpan } from "../capture/index.js";
@@ -14,7 +15,7 @@ export interface Pass2Options {
   readonly offsetHz: number;
   /** Width of the channel to keep, Hz (the passband is ±bandwidthHz/2 around offsetHz). */
   readonly bandwidthHz: number;
-  /** Most decimated samples to keep (default 2^22). */
+  /** Most decimated samples to keep (default 2^20). */
   readonly maxSamples?: number | undefined;
   /** Input samples per block read (default 262 144). */
   readonly blockSamples?: number | undefined;
@@ -35,7 +36,7 @@ export interface Pass2Result {
   readonly warnings: readonly string[];
 }
 
-export const PASS2_DEFAULTS = { maxSamples: 1 << 22, blockSamples: 262_144 } as const;
+export const PASS2_DEFAULTS = { maxSamples: 1 << 20, blockSamples: 262_144 } as const;
 
 export async function runPass2(source: CaptureSource, span: SampleSpan, options: Pass2Options): Promise<Pass2Result> {
   const fs = source.meta.sampleRateHz;

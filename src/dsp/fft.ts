@@ -30,6 +30,10 @@ export interface FftPlan {
 }
 
 const plans = new Map<number, FftPlan>();
+/** Plans up to this size are kept for the life of the process; larger ones (long zero-padded
+ * transforms of a whole record) are built for the call and left to the garbage collector, so
+ * their tables (16 bytes a point) do not stay resident. */
+const CACHED_MAX_SIZE = 1 << 16;
 
 /**
  * The plan for size N, created on first use and cached by size for the life of the process.
@@ -48,7 +52,7 @@ export function fftPlan(size: number): FftPlan {
     forward: (out, input) => engine.transform(out, input),
     inverse: (out, input) => engine.inverseTransform(out, input),
   };
-  plans.set(size, plan);
+  if (size <= CACHED_MAX_SIZE) plans.set(size, plan);
   return plan;
 }
 

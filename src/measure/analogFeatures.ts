@@ -49,7 +49,7 @@ export interface AnalogFeaturesOptions {
   readonly upperHz?: number | undefined;
 }
 
-const MAX_SAMPLES = 1 << 20;
+const MAX_SAMPLES = 1 << 18;
 
 /**
  * Features of the emission in `iq` (interleaved I,Q at `sampleRateHz`) whose Welch PSD, at the

@@ -28,10 +28,15 @@ const TONE_METHOD = "FFT peak, Candan 2011 interpolation, ML (Rife-Boorstyn 1974
  * offset from the centre of the record's band, with 2σ CRB uncertainty (module comment).
  * Throws RangeError for a bad rate or an odd-length array; null value for fewer than 8 samples.
  */
+/** Longest record toneFrequency uses (its first samples). */
+export const TONE_MAX_SAMPLES = 1 << 19;
+
 export function toneFrequency(iq: Float32Array | Float64Array, sampleRateHz: number): Measurement<"Hz"> {
   if (!(sampleRateHz > 0) || !Number.isFinite(sampleRateHz)) throw new RangeError(`sampleRateHz ${sampleRateHz} is not a positive finite rate`);
   if (iq.length % 2 !== 0) throw new RangeError(`iq has odd length ${iq.length}; it must be interleaved I,Q pairs`);
-  const n = iq.length / 2;
+  // At most 2^19 samples: the bound then is already far below any receiver's reference error,
+  // and the zero-padded transform stays at 2^20 points (16 MiB a buffer).
+  const n = Math.min(iq.length / 2, TONE_MAX_SAMPLES);
   if (n < 8) return notAvailable("Hz", TONE_METHOD, `${n} samples are too few for a frequency estimate`);
   let size = 2;
   while (size < 2 * n) size *= 2;

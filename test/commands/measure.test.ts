@@ -107,6 +107,28 @@ describe("measureCommand(path, options)", () => {
   });
 });
 
+describe("measureCommand with --ppm", () => {
+  it("removes a receiver clock error: offset + p·1e-6·fc (REFERENCES.md §10, common practice; ±1 Hz)", async () => {
+    // An unmodulated carrier read at +10 kHz by a receiver whose reference is 2 ppm high at
+    // 150 MHz: its true offset is 10 kHz + 300 Hz.
+    const iq = new Float64Array(2 * 200_000);
+    for (let k = 0; k < 200_000; k++) {
+      iq[2 * k] = 0.2 * Math.cos((2 * Math.PI * 10_000 * k) / fs);
+      iq[2 * k + 1] = 0.2 * Math.sin((2 * Math.PI * 10_000 * k) / fs);
+    }
+    const p = join(dir, "cwppm_250ksps.cf32");
+    writeFileSync(p, encodeSamples("cf32_le", withNoise(iq, 1e-6, 9)));
+    const plain = await measureCommand(p, { capture: { centerHz: 150e6 } });
+    const corrected = await measureCommand(p, { capture: { centerHz: 150e6, ppm: 2 } });
+    expect(plain.report.modulation.class).toBe("cw");
+    expect(Math.abs((plain.report.carrier.offsetHz as number) - 10_000)).toBeLessThan(1);
+    expect(Math.abs((corrected.report.carrier.offsetHz as number) - 10_300)).toBeLessThan(1);
+    expect(Math.abs((corrected.report.carrier.frequencyHz as number) - 150_010_300)).toBeLessThan(1);
+    // Unmodulated carrier: N0N (RR Appendix 1 §4).
+    expect(plain.report.emission.designator).toMatch(/N0N$/);
+  });
+});
+
 describe("measure bad input (interface.md, exit codes)", () => {
   const p = join(dir, "cw_250ksps.cf32");
   const iq = new Float64Array(2 * 50_000);
