@@ -6,6 +6,7 @@ import type { CaptureMeta, Origin, SampleSpan } from "../capture/index.js";
 import type { Pass1Result } from "../analysis/index.js";
 import { TOOL_NAME, TOOL_VERSION } from "../version.js";
 import { absoluteFrequencyHz } from "../analysis/clockCorrection.js";
+import { detectDcSpike } from "../measure/index.js";
 
 export interface CaptureSection {
   readonly path: string;
@@ -36,6 +37,8 @@ export interface QualitySection {
   readonly noiseFloorDbfsPerHz: number;
   readonly nonFiniteSamples: number;
   readonly meanPowerDbfs: number;
+  /** Level of a receiver DC spike at 0 Hz (docs/methods.md, "DC spike"), or null when there is none. */
+  readonly dcSpikeDbfs: number | null;
 }
 
 export interface InspectReport {
@@ -92,7 +95,13 @@ export function qualitySection(pass1: Pass1Result): QualitySection {
     noiseFloorDbfsPerHz: pass1.noiseFloor.dbfsPerHz,
     nonFiniteSamples: h.nonFiniteSamples,
     meanPowerDbfs: h.meanPowerDbfs,
+    dcSpikeDbfs: dcSpikeDbfs(pass1),
   };
+}
+
+function dcSpikeDbfs(pass1: Pass1Result): number | null {
+  const spike = detectDcSpike(pass1.psd, pass1.noiseFloor.densityPerHz);
+  return spike.present ? spike.levelDbfs : null;
 }
 
 export function buildInspectReport(

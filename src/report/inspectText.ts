@@ -31,6 +31,7 @@ export function inspectText(r: InspectReport): string {
     ["clipping", `${q.clippingPercent.toFixed(4)} % of components at full scale`],
     ["non-finite samples", `${q.nonFiniteSamples}`],
     ["DC offset", fmt(q.dcOffsetDbfs, 1, "dBFS")],
+    ["DC spike", q.dcSpikeDbfs === null ? "none" : `${q.dcSpikeDbfs.toFixed(1)} dBFS at 0 Hz (a receiver artefact, not an emission)`],
     ["mean power", fmt(q.meanPowerDbfs, 1, "dBFS")],
     ["IQ gain imbalance", fmt(q.iqGainImbalanceDb, 3, "dB")],
     ["IQ phase imbalance", fmt(q.iqPhaseImbalanceDeg, 3, "°")],

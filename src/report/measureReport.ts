@@ -17,7 +17,7 @@ export interface MeasureReport {
   readonly tool: { readonly name: string; readonly version: string };
   readonly measuredAt: string;
   readonly capture: CaptureSection;
-  readonly quality: QualitySection & { readonly dcSpikeDbfs: N };
+  readonly quality: QualitySection;
   readonly channel: EmissionFigures["channel"];
   readonly carrier: { readonly offsetHz: N; readonly frequencyHz: N; readonly errorPpm: N; readonly nominalHz: N };
   readonly bandwidth: {
@@ -82,7 +82,7 @@ export function buildMeasureReport(
     tool: { name: TOOL_NAME, version: TOOL_VERSION },
     measuredAt: measuredAt.toISOString(),
     capture: captureSection(meta, span, pass1.sha256),
-    quality: { ...qualitySection(pass1), dcSpikeDbfs: f.dcSpike.present ? f.dcSpike.levelDbfs : null },
+    quality: qualitySection(pass1),
     channel: f.channel,
     carrier: {
       offsetHz: l.take("carrier.offsetHz", f.carrier.offsetHz),

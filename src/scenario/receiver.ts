@@ -16,8 +16,9 @@ export interface ReceiverModel {
 }
 
 /**
- * Applies the model: I' = I + dcI,  Q' = g·(Q cos φ − I sin φ) + dcQ.
- * A tone exp(jθ) becomes ½(1 + g e^{−jφ}) e^{jθ} + ½(1 − g e^{jφ}) e^{−jθ}, so the image at −f
+ * Applies the model: I' = I + dcI,  Q' = g·(Q cos φ + I sin φ) + dcQ (the sign convention of the
+ * health figures, docs/methods.md: positive φ turns a tone into cos θ + j·g·sin(θ + φ)).
+ * A tone exp(jθ) becomes ½(1 + g e^{jφ}) e^{jθ} + ½(1 − g e^{−jφ}) e^{−jθ}, so the image at −f
  * lies below the tone by the image-rejection ratio
  *   IRR = (1 + 2g cos φ + g²) / (1 − 2g cos φ + g²)
  * (derived here; the same expression appears in RF-receiver textbooks, e.g. Razavi,
@@ -33,7 +34,7 @@ export function applyReceiver(iq: Float64Array, model: ReceiverModel): Float64Ar
     const i = iq[k] as number;
     const q = iq[k + 1] as number;
     out[k] = i + model.dcI;
-    out[k + 1] = gc * q - gs * i + model.dcQ;
+    out[k + 1] = gc * q + gs * i + model.dcQ;
   }
   return out;
 }
