@@ -10,10 +10,19 @@
  * Classification (RR Appendix 1 §4; 47 CFR 2.201): first symbol the modulation of the main
  * carrier (N unmodulated, A double-sideband AM, F frequency modulation), second the nature of
  * the modulating signal (0 none, 3 one analogue channel), third the information (N none,
- * E telephony). So an unmodulated carrier is N0N, AM telephony A3E, FM telephony F3E. Keyed
- * Morse (A1A) and the digital classes are out of scope here.
+ * E telephony). So an unmodulated carrier is N0N, AM telephony A3E, FM telephony F3E.
+ *
+ * Digital data (third symbol D, data/telemetry; second symbol 1, one channel of quantized or
+ * digital information without a modulating sub-carrier): PSK is phase modulation, G1D; FSK is
+ * frequency modulation, F1D; QAM changes amplitude and phase together, D1D (first symbol D,
+ * "amplitude and angle modulated"); on-off keying of a carrier is double-sideband amplitude
+ * keying, A1D. A sub-carrier-keyed emission (A2D, F2D, G2D) cannot be told from the RF samples
+ * alone without its baseband structure, so the symbols assume no sub-carrier; the report says so.
+ * Keyed Morse (A1A) is out of scope.
  */
-import type { AnalogClass } from "./classifyAnalog.js";
+
+/** Every class a designator is made for (interface.md `modulation.class`). */
+export type DesignatorClass = "cw" | "am" | "fm" | "fsk" | "ook" | "psk" | "qam" | "noise" | "unknown";
 
 const UNITS: ReadonlyArray<readonly [string, number]> = [["G", 1e9], ["M", 1e6], ["K", 1e3], ["H", 1]];
 
@@ -43,9 +52,9 @@ export function bandwidthCode(hz: number): string {
   return `${s.slice(0, integerDigits)}${letter}${s.slice(integerDigits)}`;
 }
 
-/** The three classification symbols of each analogue class, or null where none applies. */
-const CLASS_SYMBOLS: Readonly<Record<AnalogClass, string | null>> = {
-  cw: "N0N", am: "A3E", fm: "F3E", noise: null, unknown: null,
+/** The three classification symbols of each class, or null where none applies. */
+const CLASS_SYMBOLS: Readonly<Record<DesignatorClass, string | null>> = {
+  cw: "N0N", am: "A3E", fm: "F3E", fsk: "F1D", ook: "A1D", psk: "G1D", qam: "D1D", noise: null, unknown: null,
 };
 
 /** An emission designator, or null with the reason. */
@@ -59,7 +68,7 @@ export interface EmissionDesignator {
  * bandwidthCode(bandwidthHz) + symbols, e.g. { class: "fm", bandwidthHz: 16000 } → "16K0F3E".
  * Null with a reason for noise, unknown, or no bandwidth.
  */
-export function emissionDesignator(input: { readonly class: AnalogClass; readonly bandwidthHz: number | null }): EmissionDesignator {
+export function emissionDesignator(input: { readonly class: DesignatorClass; readonly bandwidthHz: number | null }): EmissionDesignator {
   const symbols = CLASS_SYMBOLS[input.class];
   if (symbols === null) {
     return { designator: null, reason: input.class === "noise" ? "no emission above the noise" : "the modulation class is not known" };

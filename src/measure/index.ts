@@ -27,6 +27,6 @@ export { analogFeatures, type AnalogFeatures, type AnalogFeaturesOptions } from 
 export {
   classifyAnalog, CLASSIFY_ANALOG_THRESHOLDS, type AnalogClass, type AnalogClassification,
 } from "./classifyAnalog.js";
-export { bandwidthCode, emissionDesignator, type EmissionDesignator } from "./designator.js";
+export { bandwidthCode, emissionDesignator, type EmissionDesignator, type DesignatorClass } from "./designator.js";
 export { necessaryBandwidthFmHz, necessaryBandwidthAmHz } from "./necessaryBandwidth.js";
 export { frequencyErrorPpm, frequencyErrorPpmOf } from "./ppm.js";

@@ -72,3 +72,15 @@ describe("frequencyErrorPpm(measuredHz, assignedHz)", () => {
     expect(m.uncertainty).toBeCloseTo(0.1, 12);
   });
 });
+
+describe("emissionDesignator(digital classes)", () => {
+  // ITU RR Appendix 1 §4 (REFERENCES.md §2): first symbol G phase, F frequency, D amplitude and
+  // angle, A double-sideband amplitude; second 1 = one digital channel without sub-carrier;
+  // third D = data, telemetry, telecommand.
+  it("gives G1D for PSK data, F1D for FSK, D1D for QAM, A1D for on-off keying", () => {
+    expect(emissionDesignator({ class: "psk", bandwidthHz: 22_400 }).designator).toBe("22K4G1D");
+    expect(emissionDesignator({ class: "fsk", bandwidthHz: 304 }).designator).toBe("304HF1D");
+    expect(emissionDesignator({ class: "qam", bandwidthHz: 1.25e6 }).designator).toBe("1M25D1D");
+    expect(emissionDesignator({ class: "ook", bandwidthHz: 2400 }).designator).toBe("2K40A1D");
+  });
+});
