@@ -20,3 +20,7 @@ export type { SampleStream } from "./captureSynthesis.js";
 export { SIGMF_VERSION, emissionEdgesHz, emissionComment, sigmfMetadata, sigmfMetadataText } from "./sigmfMeta.js";
 export { writeScenario } from "./writeScenario.js";
 export type { ScenarioFile } from "./writeScenario.js";
+export {
+  constellation, randomSymbols, qamGrid, CONSTELLATION_KINDS, CONSTELLATION_ORDER,
+} from "./constellations.js";
+export type { ConstellationKind } from "./constellations.js";
