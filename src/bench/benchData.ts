@@ -6,7 +6,7 @@
 import { open, rename, stat, mkdir } from "node:fs/promises";
 import { join } from "node:path";
 import { tmpdir } from "node:os";
-import { SeededRandom } from "../scenario/index.js";
+import { SeededRandom, frequencyShift, qpskSymbols, rrcPsk } from "../scenario/index.js";
 
 export const BENCH_RATE_HZ = 2.4e6;
 
@@ -50,6 +50,41 @@ export async function benchCapture(mebibytes: number): Promise<string> {
       if (phaseFm > 1e6) phaseFm %= 2 * Math.PI;
       await handle.write(new Uint8Array(block.buffer, 0, 8 * m));
       n += m;
+    }
+  } finally {
+    await handle.close();
+  }
+  await rename(temp, path);
+  return path;
+}
+
+/**
+ * Writes (or reuses) `<benchDir>/bench_qpsk_<MiB>MiB_1Msps.cf32`: QPSK at 50 kBd, RRC roll-off
+ * 0.35, at +120 kHz, about 30 dB Es/N0, built block by block.
+ */
+export async function benchQpskCapture(mebibytes: number): Promise<string> {
+  const dir = benchDir();
+  await mkdir(dir, { recursive: true });
+  const path = join(dir, `bench_qpsk_${mebibytes}MiB_1Msps.cf32`);
+  const bytes = mebibytes * 2 ** 20;
+  const existing = await stat(path).catch(() => null);
+  if (existing !== null && existing.size === bytes) return path;
+  const fs = 1e6;
+  const total = bytes / 8;
+  const rng = new SeededRandom(4242);
+  const symbols = qpskSymbols(rng, Math.ceil((total / fs) * 50e3) + 16);
+  const temp = `${path}.tmp-${process.pid}`;
+  const handle = await open(temp, "w");
+  const blockSamples = 1 << 16;
+  const block = new Float32Array(2 * blockSamples);
+  // Es/N0 = (P/Rs)/(σ²/fs) = 30 dB with P = 0.01: σ² = P·(fs/Rs)/1000, σ²/2 a component.
+  const noise = Math.sqrt((0.01 * (fs / 50e3)) / 1000 / 2);
+  try {
+    for (let n = 0; n < total; n += blockSamples) {
+      const m = Math.min(blockSamples, total - n);
+      const x = frequencyShift(rrcPsk(symbols, n, m, { symbolRateBd: 50e3, sampleRateHz: fs, rollOff: 0.35, amplitude: 0.1 }), fs, 120e3, n);
+      for (let k = 0; k < 2 * m; k++) block[k] = (x[k] as number) + noise * rng.gaussian();
+      await handle.write(new Uint8Array(block.buffer, 0, 8 * m));
     }
   } finally {
     await handle.close();

@@ -30,6 +30,17 @@ async function main(): Promise<void> {
     await source.close();
     const end = process.hrtime.bigint();
     extra = { pass1S: Number(afterPass1 - started) / 1e9, pass2S: Number(end - afterPass1) / 1e9 };
+  } else if (mode === "measure-auto") {
+    // measure of the strongest emission, found and classified blind.
+    const source = await openCapture(path, {});
+    const { span } = resolveSpan(source.meta);
+    samples = span.sampleCount;
+    const pass1 = await runPass1(source.meta, span, {});
+    const afterPass1 = process.hrtime.bigint();
+    const figures = await measureEmission(source, span, pass1, {});
+    await source.close();
+    extra = { pass1S: Number(afterPass1 - started) / 1e9, pass2S: Number(process.hrtime.bigint() - afterPass1) / 1e9 };
+    process.stderr.write(`measured class ${figures.modulation.class}\n`);
   } else if (mode === "read") {
     const handle = await open(path, "r");
     const buffer = new Uint8Array(8 << 20);
