@@ -23,3 +23,6 @@ export { PolyphaseDecimator } from "./polyphaseDecimator.js";
 export {
   ChannelExtractor, CHANNEL_EXTRACTOR_DEFAULTS, MIN_RATE_OVER_BANDWIDTH, type ChannelExtractorOptions,
 } from "./channelExtractor.js";
+export {
+  constellation, qamGrid, CONSTELLATION_KINDS, CONSTELLATION_ORDER, type ConstellationKind,
+} from "./constellations.js";
