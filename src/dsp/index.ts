@@ -26,3 +26,4 @@ export {
 export {
   constellation, qamGrid, CONSTELLATION_KINDS, CONSTELLATION_ORDER, type ConstellationKind,
 } from "./constellations.js";
+export { rootRaisedCosine, rootRaisedCosineTaps } from "./rootRaisedCosine.js";
