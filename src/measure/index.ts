@@ -30,3 +30,13 @@ export {
 export { bandwidthCode, emissionDesignator, type EmissionDesignator, type DesignatorClass } from "./designator.js";
 export { necessaryBandwidthFmHz, necessaryBandwidthAmHz } from "./necessaryBandwidth.js";
 export { frequencyErrorPpm, frequencyErrorPpmOf } from "./ppm.js";
+export {
+  normalisedCumulants, complexAbs, type Complex, type NormalisedCumulants, type NormalisedCumulantsOptions,
+} from "./cumulants.js";
+export {
+  digitalFeatures, type DigitalFeatures, type DigitalFeaturesOptions, type EnvelopeKeying, type FrequencyKeying, type LinearKeying,
+} from "./digitalFeatures.js";
+export {
+  classifyEmission, CLASSIFY_EMISSION_THRESHOLDS, IDEAL_CUMULANTS,
+  type EmissionClass, type EmissionClassification, type ClassifyEmissionOptions,
+} from "./classifyEmission.js";
