@@ -64,3 +64,11 @@ export {
   type LineSeries,
   type MarkerLine,
 } from "./lineFigure.js";
+export { drawMarkerLines } from "./markerLines.js";
+export {
+  renderConstellation,
+  CONSTELLATION_GRID_CELLS,
+  IDEAL_POINT_COLOUR,
+  type ConstellationFigureInput,
+} from "./constellationFigure.js";
+export { renderHistogram, type HistogramFigureInput } from "./histogramFigure.js";
