@@ -40,3 +40,10 @@ export {
   classifyEmission, CLASSIFY_EMISSION_THRESHOLDS, IDEAL_CUMULANTS,
   type EmissionClass, type EmissionClassification, type ClassifyEmissionOptions,
 } from "./classifyEmission.js";
+export {
+  symbolRateBlind, SYMBOL_RATE_DEFAULTS, type SymbolRateFeature, type SymbolRateOptions,
+} from "./symbolRate.js";
+export {
+  evmFigures, decideSymbols, normaliseGain, bestConstellation, type EvmFigures, type ConstellationChoice,
+} from "./evm.js";
+export { recoverSymbols, RECOVERY_DEFAULTS, type Recovered, type RecoveryOptions } from "./pskQamRecovery.js";

@@ -1,0 +1,65 @@
+/**
+ * Module-internal: the maximum of a periodogram |X(ν)|² near a starting frequency, by Newton
+ * steps (the ML frequency of one line in white noise; D. C. Rife & R. R. Boorstyn, "Single-tone
+ * parameter estimation from discrete-time observations", IEEE Trans. Inf. Theory IT-20(5), 1974).
+ */
+
+/** X(ν) = Σ z[n]·e^(−j2πν(n − c)), z interleaved I,Q, ν in cycles per sample, c = (N − 1)/2. */
+export function dtftAt(z: Float64Array, nu: number): [number, number] {
+  const n = z.length >> 1;
+  const c = (n - 1) / 2;
+  let re = 0;
+  let im = 0;
+  const w = -2 * Math.PI * nu;
+  for (let k = 0; k < n; k++) {
+    const cs = Math.cos(w * (k - c));
+    const sn = Math.sin(w * (k - c));
+    const i = z[2 * k] as number;
+    const q = z[2 * k + 1] as number;
+    re += i * cs - q * sn;
+    im += i * sn + q * cs;
+  }
+  return [re, im];
+}
+
+/**
+ * Newton steps on |X(ν)|² from ν0 (cycles per sample), each step limited to ±½ of 1/N, until
+ * a step is below 1e-7/N or the curvature is not negative. Returns the refined ν.
+ */
+export function refinePeak(z: Float64Array, nu0: number, maxSteps = 6): number {
+  const n = z.length >> 1;
+  const c = (n - 1) / 2;
+  const step = 1 / n;
+  let nu = nu0;
+  for (let iter = 0; iter < maxSteps; iter++) {
+    let x0r = 0, x0i = 0, x1r = 0, x1i = 0, x2r = 0, x2i = 0;
+    const w = -2 * Math.PI * nu;
+    for (let k = 0; k < n; k++) {
+      const t = k - c;
+      const cs = Math.cos(w * t);
+      const sn = Math.sin(w * t);
+      const i = z[2 * k] as number;
+      const q = z[2 * k + 1] as number;
+      const er = i * cs - q * sn;
+      const ei = i * sn + q * cs;
+      // d/dν multiplies by −j2πt, d²/dν² by −(2πt)².
+      const a = 2 * Math.PI * t;
+      x0r += er; x0i += ei;
+      x1r += a * ei; x1i -= a * er;
+      x2r -= a * a * er; x2i -= a * a * ei;
+    }
+    const g = 2 * (x0r * x1r + x0i * x1i);
+    const h = 2 * (x1r * x1r + x1i * x1i + x0r * x2r + x0i * x2i);
+    if (!(h < 0)) break;
+    const move = Math.max(-0.5 * step, Math.min(0.5 * step, -g / h));
+    nu += move;
+    if (Math.abs(move) < 1e-7 * step) break;
+  }
+  return nu;
+}
+
+/** Cramér–Rao variance of a line frequency, (cycles per sample)²: 6/((2π)²·ρ·N(N² − 1)),
+ * ρ the line-to-noise power ratio per sample (Rife & Boorstyn 1974). */
+export function lineFrequencyCrbVariance(rho: number, n: number): number {
+  return 6 / ((2 * Math.PI) ** 2 * rho * n * (n * n - 1));
+}

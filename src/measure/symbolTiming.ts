@@ -1,0 +1,63 @@
+/**
+ * Feed-forward symbol timing (M. Oerder & H. Meyr, "Digital filter and square timing recovery",
+ * IEEE Trans. Commun. 36(5), 1988).
+ *
+ * The matched-filter output y has a squared magnitude whose mean is periodic in T and largest at
+ * the symbol instants; over a block of B symbols the Fourier coefficient at the symbol rate,
+ *   c = Σ_n |y[n]|²·e^(−j2πn/sps),
+ * has the argument −2π·τ/sps, τ the instant of the symbol centres modulo sps (samples). Oerder &
+ * Meyr use an integer 4 samples per symbol; evaluating the coefficient at the real ratio sps
+ * makes the estimator work for any sps above about 2 + α (|y|² occupies |f| ≤ (1+α)Rs and must
+ * not alias onto Rs). Per block the estimates are unwrapped into a continuous τ(k), linearly
+ * interpolated between block centres, so a small symbol-rate error (a slow drift of τ) is
+ * followed without symbol slips.
+ */
+
+/**
+ * The instants (in samples of y) of the symbol centres k = 0, 1, …: t_k = k·sps + τ(k), keeping
+ * those with margin ≤ t_k ≤ N − 1 − margin. y interleaved I,Q; blockSymbols B ≥ 16.
+ */
+export function symbolInstants(y: Float64Array, samplesPerSymbol: number, blockSymbols: number, margin: number): Float64Array {
+  const n = y.length >> 1;
+  const sps = samplesPerSymbol;
+  const blockSamples = blockSymbols * sps;
+  const blocks = Math.max(1, Math.floor(n / blockSamples));
+  const tau = new Float64Array(blocks);
+  const w = (-2 * Math.PI) / sps;
+  for (let b = 0; b < blocks; b++) {
+    const lo = Math.round(b * blockSamples);
+    const hi = b === blocks - 1 ? n : Math.round((b + 1) * blockSamples);
+    let re = 0;
+    let im = 0;
+    for (let k = lo; k < hi; k++) {
+      const p = (y[2 * k] as number) ** 2 + (y[2 * k + 1] as number) ** 2;
+      // Phase from k mod sps keeps the argument small and exact.
+      const ph = w * (k - sps * Math.floor(k / sps));
+      re += p * Math.cos(ph);
+      im += p * Math.sin(ph);
+    }
+    let t = (-Math.atan2(im, re) * sps) / (2 * Math.PI);
+    if (b > 0) {
+      const prev = tau[b - 1] as number;
+      t += sps * Math.round((prev - t) / sps);
+    }
+    tau[b] = t;
+  }
+  const times: number[] = [];
+  const first = Math.ceil((margin - (tau[0] as number)) / sps) - 1;
+  for (let k = Math.max(first, -1); ; k++) {
+    const blockPos = (k * sps) / blockSamples - 0.5;
+    let tk: number;
+    if (blocks === 1 || blockPos <= 0) tk = tau[0] as number;
+    else if (blockPos >= blocks - 1) tk = tau[blocks - 1] as number;
+    else {
+      const b = Math.floor(blockPos);
+      const f = blockPos - b;
+      tk = (1 - f) * (tau[b] as number) + f * (tau[b + 1] as number);
+    }
+    const t = k * sps + tk;
+    if (t > n - 1 - margin) break;
+    if (t >= margin) times.push(t);
+  }
+  return Float64Array.from(times);
+}

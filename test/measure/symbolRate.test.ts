@@ -1,0 +1,70 @@
+import { describe, expect, it } from "vitest";
+import { noiseFloor, rootRaisedCosineTaps } from "../../src/dsp/index.js";
+import { occupiedBandwidth, symbolRateBlind } from "../../src/measure/index.js";
+import { complexNoise, qpskSymbols, SeededRandom } from "../../src/scenario/index.js";
+import { psdOf } from "./emissionStimuli.js";
+import { link } from "./linkStimuli.js";
+
+describe("symbolRateBlind(iq, fs, options)", () => {
+  for (const sps of [8, 4.37]) {
+    it(`recovers the rate within 0.1 % at ${sps} samples per symbol (squared envelope, α = 0.35)`, () => {
+      const rs = 1234.5;
+      const l = link({ kind: "16qam", samplesPerSymbol: sps, esN0Db: 20, symbolCount: 8000, symbolRateBd: rs });
+      const r = symbolRateBlind(l.iq, l.sampleRateHz);
+      expect(r.value).not.toBeNull();
+      expect(Math.abs((r.value as number) / rs - 1)).toBeLessThan(1e-3);
+      expect(r.unit).toBe("Bd");
+    });
+  }
+
+  it("narrows to a hint and finds the same line; the stated uncertainty covers the error", () => {
+    const l = link({ kind: "qpsk", samplesPerSymbol: 5, esN0Db: 15, symbolCount: 10000, symbolRateBd: 2000 });
+    const r = symbolRateBlind(l.iq, l.sampleRateHz, { hintBd: 1950 });
+    expect(Math.abs((r.value as number) - 2000)).toBeLessThan(2 * (r.uncertainty as number) + 1e-3);
+  });
+
+  it("is null with a reason for white noise (no cyclostationary line)", () => {
+    const iq = new Float64Array(2 * 65536);
+    complexNoise(new SeededRandom(3), iq, 1);
+    const r = symbolRateBlind(iq, 8000);
+    expect(r.value).toBeNull();
+    expect(r.warnings[0]).toMatch(/no line/);
+  });
+
+  it("throws RangeError for a bad rate or range", () => {
+    const iq = new Float64Array(2048);
+    expect(() => symbolRateBlind(iq, 0)).toThrow(RangeError);
+    expect(() => symbolRateBlind(iq, 8000, { minBd: 3000, maxBd: 2000 })).toThrow(RangeError);
+  });
+});
+
+describe("rootRaisedCosineTaps as the transmit filter", () => {
+  it("RRC-shaped QPSK (α = 0.35, 8 samples/symbol) has 99 % bandwidth 1.1667·Rs (REFERENCES §3, from the RC spectrum)", () => {
+    const rs = 1000;
+    const sps = 8;
+    const fs = rs * sps;
+    const count = 100_000;
+    const syms = qpskSymbols(new SeededRandom(9), count);
+    const h = rootRaisedCosineTaps(sps, 0.35, 24);
+    const half = (h.length - 1) / 2;
+    const n = count * sps;
+    const iq = new Float64Array(2 * n);
+    // x[n] = Σ_k s_k·h[n − k·sps + half]: impulses every sps samples through the filter.
+    for (let k = 0; k < count; k++) {
+      const c = k * sps;
+      for (let m = 0; m < h.length; m++) {
+        const j = c + m - half;
+        if (j < 0 || j >= n) continue;
+        iq[2 * j] = (iq[2 * j] as number) + (syms[2 * k] as number) * (h[m] as number);
+        iq[2 * j + 1] = (iq[2 * j + 1] as number) + (syms[2 * k + 1] as number) * (h[m] as number);
+      }
+    }
+    const noise = new Float64Array(iq.length);
+    complexNoise(new SeededRandom(10), noise, 1e-5);
+    for (let k = 0; k < iq.length; k++) iq[k] = (iq[k] as number) + (noise[k] as number);
+    const psd = psdOf(iq, 2048, fs);
+    const r = occupiedBandwidth(psd, { lowerHz: -fs / 2, upperHz: fs / 2, noiseFloorPerHz: noiseFloor(psd).densityPerHz });
+    // REFERENCES §3: ±1 % with ≥ 1e5 symbols, plus one RBW for the window's smearing.
+    expect(Math.abs((r.occupiedHz.value as number) - 1.1667 * rs)).toBeLessThan(0.01 * 1.1667 * rs + psd.enbwHz);
+  });
+});
