@@ -79,10 +79,11 @@ function densityGrid(symbols: Float64Array, extent: number, cells: number): Uint
 /**
  * The colour bar's axis in log10(1 + count), `lengthPx` long: a tick at 0 (empty cells, the
  * bottom of the bar), at 1, 10, 100, … up to the largest count, and at 2, 5, 20, 50, … where
- * they keep 2.5 line heights from their neighbours (buildAxis's vertical spacing).
+ * they keep 2.5 line heights from their neighbours (buildAxis's vertical spacing). The densest
+ * cell always gets the top of the ramp.
  */
 function countAxis(maxCount: number, lengthPx: number, textScale: number): Axis {
-  const top = Math.max(2, maxCount);
+  const top = Math.max(1, maxCount);
   const max = Math.log10(1 + top);
   const pxOf = (c: number): number => (Math.log10(1 + c) / max) * lengthPx;
   const minGapPx = 2.5 * textHeightPx(textScale);
