@@ -16,7 +16,8 @@
  *
  * Estimator: the mean is removed, the feature (at most 2^19 samples) is zero-padded to twice its
  * length and transformed; the largest bin with a frequency in [minBd, maxBd] is the coarse line,
- * then the periodogram maximum is refined by Newton steps on |X(ν)|² (Rife & Boorstyn 1974,
+ * unless a line at 1/4, 1/3 or 1/2 of its frequency also stands clear (transition features of
+ * rectangular keying have equal lines at every k·Rs; the lowest is taken), then the periodogram maximum is refined by Newton steps on |X(ν)|² (Rife & Boorstyn 1974,
  * "Single-tone parameter estimation from discrete-time observations", IEEE Trans. Inf. Theory
  * IT-20(5)): ML for a line in white noise.
  * The line "stands clear" when its periodogram exceeds the mean background level b (read from
@@ -99,6 +100,15 @@ export function symbolRateBlind(iq: Float32Array | Float64Array, sampleRateHz: n
   const background = bSum / Math.max(1, bCount);
   const searched = kHi - kLo + 1;
   const threshold = Math.log(searched / SYMBOL_RATE_DEFAULTS.falseAlarmProbability);
+  // Rectangular keying makes a transition feature an impulse train with lines of equal height
+  // at every k·Rs: prefer the lowest sub-multiple (1/4, 1/3, 1/2) whose line also stands clear.
+  for (const div of [4, 3, 2]) {
+    const centre = Math.round(kPeak / div);
+    if (centre < kLo) continue;
+    let kSub = centre;
+    for (let k = centre - 2; k <= centre + 2; k++) if (power(k) > power(kSub)) kSub = k;
+    if (power(kSub) / background > threshold) { kPeak = kSub; break; }
+  }
   const ratio = power(kPeak) / background;
   if (!(ratio > threshold)) {
     return notAvailable("Bd", method, `no line stands clear of the ${kind} background in ${lo.toFixed(1)}..${hi.toFixed(1)} Bd (peak ${ratio.toFixed(1)}× the background, needs ${threshold.toFixed(1)}×); a roll-off near 0 gives a weak line`);

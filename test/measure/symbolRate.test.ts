@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { noiseFloor, rootRaisedCosineTaps } from "../../src/dsp/index.js";
 import { occupiedBandwidth, symbolRateBlind } from "../../src/measure/index.js";
-import { complexNoise, qpskSymbols, SeededRandom } from "../../src/scenario/index.js";
+import { complexNoise, ookFromBits, qpskSymbols, SeededRandom } from "../../src/scenario/index.js";
 import { psdOf } from "./emissionStimuli.js";
 import { link } from "./linkStimuli.js";
 
@@ -21,6 +21,22 @@ describe("symbolRateBlind(iq, fs, options)", () => {
     const l = link({ kind: "qpsk", samplesPerSymbol: 5, esN0Db: 15, symbolCount: 10000, symbolRateBd: 2000 });
     const r = symbolRateBlind(l.iq, l.sampleRateHz, { hintBd: 1950 });
     expect(Math.abs((r.value as number) - 2000)).toBeLessThan(2 * (r.uncertainty as number) + 1e-3);
+  });
+
+  it("with the envelope feature recovers the bit rate of on-off keying within 0.1 %, not a harmonic", () => {
+    // Hard-keyed OOK: the transition feature is an impulse train with equal lines at k·Rb
+    // (common practice: the spectrum of a randomly gated periodic impulse train).
+    const fs = 48000;
+    const rb = 1200;
+    const rng = new SeededRandom(4);
+    const bits = Array.from({ length: 2000 }, () => rng.integer(2));
+    const n = Math.floor((2000 * fs) / rb);
+    const iq = Float64Array.from(ookFromBits(bits, rb, fs, 0, n, 0.1 / rb));
+    const noise = new Float64Array(iq.length);
+    complexNoise(new SeededRandom(5), noise, 1e-3);
+    for (let k = 0; k < iq.length; k++) iq[k] = (iq[k] as number) + (noise[k] as number);
+    const r = symbolRateBlind(iq, fs, { feature: "envelope", maxBd: 5000 });
+    expect(Math.abs((r.value as number) / rb - 1)).toBeLessThan(1e-3);
   });
 
   it("is null with a reason for white noise (no cyclostationary line)", () => {
