@@ -3,6 +3,7 @@ import { encodePng } from "./encodePng.js";
 import { checkFigureSize, drawTitleBlock, fitText, PAGE_STYLE, pagePaddingPx, textScaleFor } from "./figureFrame.js";
 import { textHeightPx, textWidthPx } from "./font.js";
 import { RgbaCanvas, type Rect, type Rgb } from "./raster.js";
+import { drawMarkerLines } from "./markerLines.js";
 import type { FigureLayout } from "./spectrogramFigure.js";
 
 /** One curve: points (xValues[i], yValues[i]) joined in order; a NaN in either breaks the line. */
@@ -98,17 +99,6 @@ function axisRange(input: LineFigureInput, axis: "x" | "y"): [number, number] {
   return [lo, hi];
 }
 
-function overlaps(a: Rect, b: Rect): boolean {
-  return a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
-}
-
-// Moves `box` down (or up when `step` < 0) until it is clear of every placed box or leaves the plot.
-function clearOf(box: Rect, placed: readonly Rect[], step: number, plot: Rect): Rect {
-  let b = box;
-  for (let i = 0; i < 40 && placed.some((p) => overlaps(p, b)); i++) b = { ...b, y: b.y + step };
-  return { ...b, y: Math.min(plot.y + plot.height - b.height, Math.max(plot.y, b.y)) };
-}
-
 /**
  * A line figure as PNG: several series on one pair of axes (ticks, labels and units on both),
  * vertical and horizontal marker lines with their labels inside the plot, a legend row under
@@ -201,37 +191,7 @@ export function renderLineFigure(input: LineFigureInput): {
     }
   });
 
-  const placed: Rect[] = [];
-  const labels: { box: Rect; text: string; colour: Rgb }[] = [];
-  const inset = 3 * s;
-  for (const marker of input.markers ?? []) {
-    const colour = marker.colour ?? MARKER_COLOUR;
-    const dash = { widthPx: s, dashPx: [6 * s, 4 * s] as const };
-    const w = textWidthPx(marker.label, s) + 2 * s;
-    const h = lineH + 2 * s;
-    let box: Rect;
-    if (marker.orientation === "vertical") {
-      const x = px(marker.value);
-      canvas.line(x, plot.y, x, plot.y + plot.height - 1, colour, dash);
-      // Label on the side away from the plot's centre when it fits there, else the other side.
-      const outer = x < plot.x + plot.width / 2 ? x - inset - w : x + inset;
-      const inner = x < plot.x + plot.width / 2 ? x + inset : x - inset - w;
-      const fits = outer >= plot.x && outer + w <= plot.x + plot.width;
-      box = clearOf({ x: fits ? outer : inner, y: plot.y + inset, width: w, height: h }, placed, h + s, plot);
-    } else {
-      const y = py(marker.value);
-      canvas.line(plot.x, y, plot.x + plot.width - 1, y, colour, dash);
-      const above = y - inset - h;
-      box = clearOf({ x: plot.x + plot.width - inset - w, y: above >= plot.y ? above : y + inset, width: w, height: h }, placed, -(h + s), plot);
-    }
-    placed.push(box);
-    labels.push({ box, text: marker.label, colour });
-  }
-  // Labels last, on a page-coloured patch, so that no line crosses them.
-  for (const { box, text, colour } of labels) {
-    canvas.fillRect(box, PAGE_STYLE.pageColour);
-    canvas.text(text, box.x + s, box.y + s, colour, { scale: s });
-  }
+  drawMarkerLines(canvas, plot, input.markers ?? [], px, py, s);
   canvas.setClip(null);
 
   return { png: encodePng(canvas), layout: { plot }, xOf, yOf };
