@@ -107,7 +107,7 @@ export function classifyEmission(
     }
   }
   const l = f.linear;
-  if (l !== null && l.powerLaw !== null && a.class !== "fm") {
+  if (l !== null && l.powerLaw !== null && a.class !== "fm" && a.class !== "am") {
     const ranked = IDEAL_CUMULANTS
       .map((c) => ({ c, d: Math.hypot(l.c20Abs - c.c20, l.c40Abs - c.c40, l.c42 - c.c42) }))
       .sort((x, y) => x.d - y.d);

@@ -13,7 +13,8 @@
  *   over each symbol (rate from the frequency-transition line), at the timing phase of 8 that
  *   maximises the variance of the averages (integrate-and-dump of rectangular FSK); clustered
  *   into 2 and 4 levels (levelClusters.ts): `separation` is min gap / pooled σ.
- * - PSK/QAM: symbol-instant samples (symbolSampling.ts: matched filter, square-law timing,
+ * - PSK/QAM: rate from the squared-envelope line searched in [OBW/1.7, OBW] (RRC signalling,
+ *   REFERENCES.md §3); symbol-instant samples (symbolSampling.ts: matched filter, square-law timing,
  *   power-law carrier) and their normalised cumulants (cumulants.ts) with the noise removed.
  */
 import { noiseFloor, type WelchPsd } from "../dsp/index.js";
@@ -22,7 +23,8 @@ import { complexAbs, normalisedCumulants, type NormalisedCumulants } from "./cum
 import { instantaneousFrequencyHz } from "./fmDiscriminator.js";
 import { levelClusters, type LevelClusters } from "./levelClusters.js";
 import { occupiedBandwidth } from "./occupiedBandwidth.js";
-import { symbolRateBlind } from "./symbolRate.js";
+import type { Measurement } from "./measurement.js";
+import { symbolRateBlind, type SymbolRateFeature } from "./symbolRate.js";
 import { symbolSamples } from "./symbolSampling.js";
 
 /** Envelope (OOK) evidence. */
@@ -101,8 +103,30 @@ export function digitalFeatures(
   };
 }
 
-function rateOf(iq: Float32Array | Float64Array, fs: number, feature: "envelope" | "frequency" | "squaredEnvelope"): number | null {
-  return symbolRateBlind(iq, fs, { feature, minBd: fs / 1000 }).value;
+function rateOf(
+  iq: Float32Array | Float64Array, fs: number, feature: SymbolRateFeature, minBd = fs / 1000, maxBd = fs / 2,
+): number | null {
+  return fundamentalRate(iq, fs, feature, minBd, maxBd).value;
+}
+
+/**
+ * symbolRateBlind, then the fundamental: a transition feature of rectangular keying is an
+ * impulse train on the symbol grid, with lines of similar strength at every k·Rs, so the largest
+ * may be a harmonic. The lowest R/k (k = 3, 2) at which a line also stands clear (searched within
+ * ±10 % of R/k) is taken; on the true grid there is no line below Rs.
+ */
+export function fundamentalRate(
+  iq: Float32Array | Float64Array, fs: number, feature: SymbolRateFeature, minBd: number, maxBd: number,
+): Measurement<"Bd"> {
+  const first = symbolRateBlind(iq, fs, { feature, minBd, maxBd });
+  const r = first.value;
+  if (r === null || feature === "squaredEnvelope") return first;
+  for (const k of [3, 2]) {
+    if (r / k < Math.max(minBd, 1.2 * fs / (iq.length >> 1))) continue;
+    const sub = symbolRateBlind(iq, fs, { feature, minBd, maxBd, hintBd: r / k });
+    if (sub.value !== null && Math.abs(sub.value * k / r - 1) < 0.01) return sub;
+  }
+  return first;
 }
 
 /** Moving average of x over `length` samples, centred (edges use what is there). */
@@ -151,11 +175,18 @@ export function envelopeSplit(envelope: Float64Array): { threshold: number; lowM
   for (let i = 0; i <= at; i++) { wl += hist[i] as number; sl += i * (hist[i] as number); }
   const lowBin = wl > 0 ? sl / wl : 0;
   const highBin = total - wl > 0 ? (sumAll - sl) / (total - wl) : bins - 1;
-  // The valley: the emptiest bin (smoothed over 5) between the class means.
-  const sm = movingAverage(hist, 5);
-  let valley = at;
-  for (let i = Math.ceil(lowBin); i <= Math.floor(highBin); i++) if ((sm[i] as number) < (sm[valley] as number)) valley = i;
-  const threshold = min + (valley + 1) * w;
+  // The valley: the emptiest bin (histogram smoothed over 9 bins) in the middle third between
+  // the class means; where the valley is flat (within 10 %), the bin nearest the midpoint.
+  const sm = movingAverage(hist, 9);
+  const midBin = (lowBin + highBin) / 2;
+  const span = (highBin - lowBin) / 6;
+  let valley = Math.round(midBin);
+  for (let i = Math.ceil(midBin - span); i <= Math.floor(midBin + span); i++) {
+    const better = (sm[i] as number) < 0.9 * (sm[valley] as number);
+    const tie = !better && (sm[i] as number) <= (sm[valley] as number) / 0.9 && Math.abs(i - midBin) < Math.abs(valley - midBin);
+    if (better || tie) valley = i;
+  }
+  const threshold = min + (valley + 0.5) * w;
   return { threshold, lowMean: min + (lowBin + 0.5) * w, highMean: min + (highBin + 0.5) * w };
 }
 
@@ -228,7 +259,9 @@ function frequencyKeying(iq: Float32Array | Float64Array, fs: number, lowerHz: n
 }
 
 function linearKeying(iq: Float32Array | Float64Array, fs: number, occupiedHz: number, floor: number): LinearKeying | null {
-  const rate = rateOf(iq, fs, "squaredEnvelope");
+  // RRC signalling has OBW99 between 1.07·Rs (α = 0.2) and 1.63·Rs (α = 1) (REFERENCES.md §3):
+  // search Rs in [OBW/1.7, OBW/1.0], away from the strong low-frequency self-noise of |x|².
+  const rate = rateOf(iq, fs, "squaredEnvelope", occupiedHz / 1.7, Math.min(fs / 2, occupiedHz));
   if (rate === null || fs / rate < 1.5) return null;
   const s = symbolSamples(iq, fs, rate, occupiedHz, floor);
   if ((s.symbols.length >> 1) < 64) return null;

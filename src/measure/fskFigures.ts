@@ -4,11 +4,13 @@
  * `digital.symbolRateBd`).
  *
  * Method: the record is band-limited to 1.2 × the span between the 2 % and 98 % quantiles of its
- * raw instantaneous frequency (at least fs/50 wide), the discriminator (fmDiscriminator.ts) gives f[n]; the symbol rate is the line of the frequency-
+ * raw instantaneous frequency (at least fs/50 wide) for the rate, widened by 1.5·Rs each side
+ * for the tones; the discriminator (fmDiscriminator.ts) gives f[n]; the symbol rate is the line of the frequency-
  * transition feature (symbolRate.ts, feature "frequency"); f is averaged over each symbol at the
  * timing phase (of 8) that maximises the variance of the averages (integrate-and-dump, the
  * matched filter of rectangular FSK); the averages are clustered into `order` levels (Lloyd
- * 1982), whose centres are the tone frequencies. Shift = f1 − f0 for 2-FSK, the mean spacing
+ * 1982); each tone is the mean of the symbols whose neighbours share its cluster (runs of three,
+ * free of the transition smear of band-limiting). Shift = f1 − f0 for 2-FSK, the mean spacing
  * (f_{M−1} − f0)/(M − 1) for M-FSK; h = shift / Rs (e.g. REFERENCES.md §4: 800 Hz shift at
  * 1200 Bd gives h = 2/3). Uncertainty of a tone (k = 2): 2σ/√count of its cluster, σ the pooled
  * spread; of the shift, the two tones' combined in quadrature; of h, propagated from shift and
@@ -16,11 +18,10 @@
  */
 import { powerToDb } from "../dsp/index.js";
 import { bandLimit } from "./bandLimit.js";
-import { symbolFrequencies } from "./digitalFeatures.js";
+import { fundamentalRate, symbolFrequencies } from "./digitalFeatures.js";
 import { instantaneousFrequencyHz } from "./fmDiscriminator.js";
-import { levelClusters } from "./levelClusters.js";
+import { levelClusters, type LevelClusters } from "./levelClusters.js";
 import { measurement, notAvailable, type Measurement } from "./measurement.js";
-import { symbolRateBlind } from "./symbolRate.js";
 
 /** Options of fskFigures. */
 export interface FskFiguresOptions {
@@ -57,22 +58,26 @@ export function fskFigures(iq: Float32Array | Float64Array, sampleRateHz: number
   if (order !== 2 && order !== 4) throw new RangeError(`order ${String(order)} must be 2 or 4`);
   if (options.symbolRateBd !== undefined && !(options.symbolRateBd > 0)) throw new RangeError(`symbolRateBd ${options.symbolRateBd} is not a positive rate`);
   const fs = sampleRateHz;
-  const band = bandLimit(iq, fs, ...bandOf(iq, fs));
-  const freq = instantaneousFrequencyHz(band, fs);
-  const histogram = histogramOf(freq, FSK_FIGURES_DEFAULTS.histogramBins);
+  const [lo, hi] = bandOf(iq, fs);
+  const band = bandLimit(iq, fs, lo, hi);
+  const histogram = histogramOf(instantaneousFrequencyHz(band, fs), FSK_FIGURES_DEFAULTS.histogramBins);
   const rateMethod = "symbol rate: line of the frequency-transition feature (symbolRateBlind)";
   const rate = options.symbolRateBd !== undefined
     ? measurement(options.symbolRateBd, "Bd", null, "symbol rate given by the caller")
-    : symbolRateBlind(band, fs, { feature: "frequency", minBd: fs / 1000 });
+    : fundamentalRate(band, fs, "frequency", fs / 1000, fs / 2);
   const method = `${order}-level clustering of per-symbol mean instantaneous frequency (integrate-and-dump, Lloyd 1982)`;
   const missing = (why: string): FskFigures => ({
     toneFrequenciesHz: [], shiftHz: notAvailable("Hz", method, why), symbolRateBd: rate.value === null ? rate : measurement(rate.value, "Bd", rate.uncertainty, rate.method || rateMethod),
     modulationIndex: notAvailable("", method, why), histogram,
   });
   if (rate.value === null) return missing(rate.warnings[0] ?? "no symbol rate");
+  // For the tones, widen the band by 1.5·Rs each side so the keying's sidebands pass.
+  const centre = (lo + hi) / 2;
+  const half = (hi - lo) / 2 + 1.5 * rate.value;
+  const freq = instantaneousFrequencyHz(bandLimit(iq, fs, centre - half, centre + half), fs);
   const v = symbolFrequencies(freq, fs, rate.value);
   if (v.length < 8 * order) return missing(`${v.length} symbols are too few for ${order} tones`);
-  const c = levelClusters(v, order);
+  const c = runCentres(v, levelClusters(v, order));
   const tones = c.centres.map((f, i) => measurement(f, "Hz", (2 * c.spread) / Math.sqrt(Math.max(1, c.counts[i] as number)), method));
   const first = c.centres[0] as number;
   const last = c.centres[order - 1] as number;
@@ -115,4 +120,38 @@ function histogramOf(freq: Float32Array, bins: number): FrequencyHistogram {
     if (i >= 0 && i < bins) counts[i] = (counts[i] as number) + 1;
   }
   return { binsHz, counts };
+}
+
+/**
+ * Tone centres from the symbols whose two neighbours fall in the same cluster: band-limiting
+ * smears each transition into the adjacent symbols and pulls their means towards the
+ * neighbouring tone, which runs of three avoid. Clusters with fewer than 3 such symbols keep
+ * their k-means centre. The spread is recomputed about the new centres over the same symbols.
+ */
+function runCentres(v: Float64Array, c: LevelClusters): LevelClusters {
+  const k = c.centres.length;
+  if (k === 0) return c;
+  const label = (x: number): number => {
+    let j = 0;
+    while (j < k - 1 && x > ((c.centres[j] as number) + (c.centres[j + 1] as number)) / 2) j++;
+    return j;
+  };
+  const labels = Array.from(v, label);
+  const sum = new Array<number>(k).fill(0);
+  const cnt = new Array<number>(k).fill(0);
+  for (let i = 1; i + 1 < v.length; i++) {
+    const l = labels[i] as number;
+    if (labels[i - 1] === l && labels[i + 1] === l) { sum[l] = (sum[l] as number) + (v[i] as number); cnt[l] = (cnt[l] as number) + 1; }
+  }
+  const centres = c.centres.map((m, j) => ((cnt[j] as number) >= 3 ? (sum[j] as number) / (cnt[j] as number) : m));
+  let ss = 0;
+  let used = 0;
+  for (let i = 1; i + 1 < v.length; i++) {
+    const l = labels[i] as number;
+    if (labels[i - 1] === l && labels[i + 1] === l) { ss += ((v[i] as number) - (centres[l] as number)) ** 2; used++; }
+  }
+  const spread = used > k ? Math.sqrt(ss / (used - k)) : c.spread;
+  let gap = Infinity;
+  for (let j = 1; j < k; j++) gap = Math.min(gap, (centres[j] as number) - (centres[j - 1] as number));
+  return { centres, counts: cnt.map((x, j) => (x >= 3 ? x : (c.counts[j] as number))), spread, separation: spread > 0 ? gap / spread : Infinity };
 }

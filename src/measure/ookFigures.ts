@@ -15,9 +15,8 @@
  * standard error of the class mean, in dB.
  */
 import { powerToDb } from "../dsp/index.js";
-import { envelopeSplit, movingAverage } from "./digitalFeatures.js";
+import { envelopeSplit, fundamentalRate, movingAverage } from "./digitalFeatures.js";
 import { measurement, notAvailable, type Measurement } from "./measurement.js";
-import { symbolRateBlind } from "./symbolRate.js";
 
 /** Options of ookFigures. */
 export interface OokFiguresOptions {
@@ -41,7 +40,7 @@ export function ookFigures(iq: Float32Array | Float64Array, sampleRateHz: number
   const fs = sampleRateHz;
   const rate = options.symbolRateBd !== undefined
     ? measurement(options.symbolRateBd, "Bd", null, "symbol rate given by the caller")
-    : symbolRateBlind(iq, fs, { feature: "envelope", minBd: fs / 1000 });
+    : fundamentalRate(iq, fs, "envelope", fs / 1000, fs / 2);
   const method = "envelope smoothed over 1/4 symbol, threshold at the histogram valley (Otsu 1979)";
   if (rate.value === null) {
     const why = rate.warnings[0] ?? "no symbol rate";
