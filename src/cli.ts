@@ -104,7 +104,8 @@ function program(): Command {
       .argument("<capture>", "capture file")
       .description(
         "measure one emission: carrier offset/frequency/error, occupied and x-dB bandwidth, channel power and SNR, " +
-          "class (cw, am, fm), FM deviation and tones, AM depth, emission designator; writes a report folder with --out",
+          "class (cw, am, fm, fsk, ook, psk, qam) and order, FM deviation and tones, AM depth, symbol rate, EVM/MER, " +
+          "FSK shift, OOK duty cycle, emission designator; writes a report folder with --out",
       ),
   )
     .option("--channel <offset:width>", "measure the emission in this channel, e.g. 12.5k:25k (offset from the capture centre : width), default the strongest")
@@ -112,6 +113,9 @@ function program(): Command {
     .option("--xdb <dB>", "level below the spectral peak for the x-dB bandwidth", "26")
     .option("--audio-bw <Hz>", "audio low-pass before FM peak deviation and AM depth (clicks of noise are removed)", "3k")
     .addOption(new Option("--mode <class>", "take the emission as this class instead of classifying it").choices(MEASURE_MODES))
+    .option("--order <n>", "order of a digital emission: 2, 4, 8 (psk), 16, 32, 64 (qam), 2 or 4 (fsk)")
+    .option("--symbol-rate <Bd>", "symbol rate of a digital emission, e.g. 19.2k (default: found blind)")
+    .option("--rolloff <alpha>", "RRC roll-off of a PSK/QAM emission (default: estimated from its occupied bandwidth)")
     .option("-o, --out <dir>", "write report.json, report.md and the figures (PNG) into this folder")
     .option("--json", "print the report as one JSON document on stdout (schema iqaudit/report/1)")
     .addHelpText(
@@ -122,7 +126,10 @@ function program(): Command {
     .action(
       async (
         path: string,
-        flags: RawCaptureFlags & { channel?: string; nominal?: string; xdb: string; audioBw: string; mode?: MeasureMode; out?: string; json?: boolean },
+        flags: RawCaptureFlags & {
+          channel?: string; nominal?: string; xdb: string; audioBw: string; mode?: MeasureMode; out?: string; json?: boolean;
+          order?: string; symbolRate?: string; rolloff?: string;
+        },
       ) => {
         const progress = createProgress(`measure ${path}`, !quiet());
         const result = await measureCommand(path, {
@@ -132,6 +139,9 @@ function program(): Command {
           xDb: parseQuantity("--xdb", flags.xdb, { unit: "none", min: 0 }),
           audioBandwidthHz: parseQuantity("--audio-bw", flags.audioBw, { unit: "Hz", min: 0 }),
           mode: flags.mode,
+          order: flags.order === undefined ? undefined : parseCount("--order", flags.order, 2),
+          symbolRateBd: flags.symbolRate === undefined ? undefined : parseQuantity("--symbol-rate", flags.symbolRate, { unit: "none", min: 0 }),
+          rollOff: flags.rolloff === undefined ? undefined : parseQuantity("--rolloff", flags.rolloff, { unit: "none", min: 0 }),
           outDir: flags.out,
           pass1: { onProgress: progress.onProgress },
         });

@@ -44,6 +44,35 @@ export interface AmFiguresOut {
   readonly trace: Trace;
 }
 
+export interface DigitalFiguresOut {
+  readonly symbolRateBd: Measurement;
+  readonly evmRmsPercent: Measurement;
+  readonly evmPeakPercent: Measurement;
+  readonly merDb: Measurement;
+  readonly iqOriginOffsetDb: Measurement;
+  readonly frequencyErrorHz: Measurement;
+  readonly symbols: number | null;
+  readonly rollOff: number | null;
+  readonly rollOffMethod: string | null;
+  readonly constellation: string | null;
+  /** Recovered symbols and their decided ideal points, for the constellation figure. */
+  readonly recovered: { readonly symbols: Float64Array; readonly ideal: Float64Array } | null;
+}
+
+export interface FskFiguresOut {
+  readonly shiftHz: Measurement;
+  readonly modulationIndex: Measurement;
+  readonly toneFrequenciesHz: readonly Measurement[];
+  /** Histogram of the instantaneous frequency (Hz from the channel centre). */
+  readonly histogram: { readonly binsHz: ArrayLike<number>; readonly counts: ArrayLike<number> };
+}
+
+export interface OokFiguresOut {
+  readonly onOffRatioDb: Measurement;
+  readonly dutyCyclePercent: Measurement;
+  readonly onLevelDbfs: Measurement;
+}
+
 export interface EmissionFigures {
   readonly channel: {
     readonly offsetHz: number;
@@ -81,6 +110,10 @@ export interface EmissionFigures {
   };
   readonly fm: FmFiguresOut | null;
   readonly am: AmFiguresOut | null;
+  /** For every digital class (ook, fsk, psk, qam); EVM figures for psk and qam only. */
+  readonly digital: DigitalFiguresOut | null;
+  readonly fsk: FskFiguresOut | null;
+  readonly ook: OokFiguresOut | null;
   readonly emission: {
     readonly designator: string | null;
     readonly necessaryBandwidthHz: Measurement;

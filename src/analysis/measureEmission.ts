@@ -26,16 +26,20 @@ import {
   psdCentroidHz,
   toneFrequency,
   xDbBandwidth,
-  type AnalogClass,
+  classifyEmission,
+  burstSamples,
+  fskFigures,
+  type DesignatorClass,
   type Measurement,
 } from "../measure/index.js";
 import type { Pass1Result } from "./pass1.js";
 import { runPass2 } from "./pass2.js";
 import { correctedOffsetHz } from "./clockCorrection.js";
-import type { AmFiguresOut, EmissionFigures, FmFiguresOut } from "./emissionFigures.js";
+import type { AmFiguresOut, DigitalFiguresOut, EmissionFigures, FmFiguresOut, FskFiguresOut, OokFiguresOut } from "./emissionFigures.js";
+import { digitalEmission } from "./digitalEmission.js";
 
-/** Classes `--mode` can force (the analog ones; the digital classes come with their measurements). */
-export const MEASURE_MODES = ["cw", "am", "fm"] as const;
+/** Classes `--mode` can force. */
+export const MEASURE_MODES = ["cw", "am", "fm", "fsk", "ook", "psk", "qam"] as const;
 export type MeasureMode = (typeof MEASURE_MODES)[number];
 
 export interface MeasureEmissionOptions {
@@ -48,6 +52,10 @@ export interface MeasureEmissionOptions {
   /** Audio low-pass before FM peak deviation and AM depth, Hz (default 3000). */
   readonly audioBandwidthHz?: number | undefined;
   readonly mode?: MeasureMode | undefined;
+  /** Hints for digital emissions: order (2, 4, 8, 16, 32, 64), symbol rate (Bd), RRC roll-off. */
+  readonly order?: number | undefined;
+  readonly symbolRateBd?: number | undefined;
+  readonly rollOff?: number | undefined;
   /** Most decimated channel samples kept (default 2^20, PASS2_DEFAULTS). */
   readonly maxChannelSamples?: number | undefined;
   readonly onProgress?: ((doneSamples: number, totalSamples: number) => void) | undefined;
@@ -83,10 +91,9 @@ export async function measureEmission(
   const widthHz = Math.min(options.channel?.widthHz ?? Math.max(region.widthHz * 1.6, 16 * pass1.psd.binWidthHz), 0.9 * fs);
   const pass2 = await runPass2(source, span, { offsetHz, bandwidthHz: widthHz, maxSamples: options.maxChannelSamples, onProgress: options.onProgress });
   warnings.push(...pass2.warnings);
-  const iq = pass2.iq;
   const fsc = pass2.sampleRateHz;
   const half = widthHz / 2;
-  const psd = channelPsd(iq, fsc, widthHz);
+  const psd = channelPsd(pass2.iq, fsc, widthHz);
   if (psd === null) {
     warnings.push("the channel holds too few samples to estimate its spectrum");
     return noEmission(pass1, dcSpike, xDb, options.nominalHz ?? null, warnings);
@@ -94,14 +101,48 @@ export async function measureEmission(
   const obw = occupiedBandwidth(psd, { lowerHz: -half, upperHz: half, noiseFloorPerHz: floor });
   const xdb = xDbBandwidth(psd, { lowerHz: -half, upperHz: half, xDb });
   const pw = channelPower(psd, { lowerHz: -half, upperHz: half, noiseFloorPerHz: floor, occupiedHz: obw.occupiedHz.value ?? undefined });
-  const features = analogFeatures(iq, fsc, psd, { noiseFloorPerHz: floor, snrDb: pw.snrDb.value, lowerHz: -half, upperHz: half });
-  const decided = options.mode === undefined ? classifyAnalog(features) : { class: options.mode, confidence: 1, method: "given with --mode" };
-  const cls: AnalogClass = decided.class;
+  const features = analogFeatures(pass2.iq, fsc, psd, { noiseFloorPerHz: floor, snrDb: pw.snrDb.value, lowerHz: -half, upperHz: half });
+  const analog = classifyAnalog(features);
+  const decided =
+    options.mode === undefined
+      ? classifyEmission(pass2.iq, fsc, psd, { snrDb: pw.snrDb.value, analog, noiseFloorPerHz: floor })
+      : { class: options.mode, order: options.order ?? null, confidence: 1, method: "given with --mode", features: null };
+  let cls: DesignatorClass = decided.class;
+  let order: number | null = options.order ?? decided.order;
+  let confidence = decided.confidence;
+  let classMethod = decided.method;
+  let iq = pass2.iq;
+  // A bursty link first looks like on-off keying: look inside its bursts before deciding.
+  if (cls === "ook" && options.mode === undefined) {
+    const bursts = burstSamples(pass2.iq, fsc);
+    const burstPsd = bursts.iq.length / 2 >= 4096 ? channelPsd(bursts.iq, fsc, widthHz) : null;
+    if (burstPsd !== null) {
+      const inner = classifyEmission(bursts.iq, fsc, burstPsd, { snrDb: pw.snrDb.value, analog: classifyAnalog(analogFeatures(bursts.iq, fsc, burstPsd, { noiseFloorPerHz: floor, lowerHz: -half, upperHz: half })), noiseFloorPerHz: floor });
+      // Short bursts joined end to end are too little for the cumulant and histogram tests of
+      // classifyEmission alone: a constant envelope with a moving frequency inside the bursts
+      // (the analog "fm" decision) whose frequency histogram gives two tones at a plausible index
+      // is taken as FSK.
+      const asFsk = inner.class === "fm" ? fskFigures(bursts.iq, fsc, { order: 2 }) : null;
+      const h = asFsk?.modulationIndex.value ?? null;
+      const innerClass = inner.class === "fm" && h !== null && h >= 0.2 && h <= 5 ? "fsk" : inner.class;
+      if ((innerClass === "fsk" || innerClass === "psk" || innerClass === "qam") && inner.confidence >= 0.6) {
+        cls = innerClass;
+        order = options.order ?? (innerClass === "fsk" && inner.class === "fm" ? 2 : inner.order);
+        confidence = innerClass === inner.class ? inner.confidence : Math.min(inner.confidence, 0.7);
+        classMethod = `${inner.method}; decided inside ${bursts.burstCount} bursts (on ${bursts.dutyCyclePercent.toFixed(1)} % of the time)`;
+        iq = bursts.iq;
+        warnings.push(`the emission is keyed in bursts (on ${bursts.dutyCyclePercent.toFixed(1)} % of the time); its modulation was measured inside the bursts`);
+      }
+    }
+  }
 
   // Figures of the class, and the carrier by the method that suits it (all relative to the channel centre).
   let carrier: Measurement;
   let fm: FmFiguresOut | null = null;
   let am: AmFiguresOut | null = null;
+  let digital: DigitalFiguresOut | null = null;
+  let fsk: FskFiguresOut | null = null;
+  let ook: OokFiguresOut | null = null;
   let necessary: Measurement = notAvailable("Hz", "47 CFR 2.202(g) / ITU-R SM.1138", "no necessary-bandwidth formula applies to this class");
   if (cls === "fm") {
     const f = fmFigures(iq, fsc, { audioBandwidthHz });
@@ -160,6 +201,15 @@ export async function measureEmission(
         necessary = measurement(necessaryBandwidthAmHz(m), "Hz", null, `47 CFR 2.202(g) A3E: 2M with the measured M = ${m.toFixed(0)} Hz`);
       }
     }
+  } else if (cls === "psk" || cls === "qam" || cls === "fsk" || cls === "ook") {
+    const d = digitalEmission(iq, fsc, cls, order, obw.occupiedHz.value, options);
+    digital = d.digital;
+    fsk = d.fsk;
+    ook = d.ook;
+    order = d.order;
+    warnings.push(...d.warnings);
+    if (d.necessaryBandwidthHz !== null) necessary = d.necessaryBandwidthHz;
+    carrier = d.carrierHz !== null && d.carrierHz.value !== null ? d.carrierHz : cls === "ook" ? toneFrequency(iq, fsc) : psdCentroidHz(psd, -half, half, floor);
   } else {
     carrier = psdCentroidHz(psd, -half, half, floor);
   }
@@ -187,7 +237,7 @@ export async function measureEmission(
       givenByUser,
       sampleRateHz: fsc,
       decimation: pass2.decimation,
-      measuredS: iq.length / 2 / fsc,
+      measuredS: pass2.iq.length / 2 / fsc,
     },
     dcSpike,
     carrier: { offsetHz: carrierOffset, frequencyHz: carrierRf, errorPpm, nominalHz },
@@ -204,14 +254,17 @@ export async function measureEmission(
     power: { channelDbfs: pw.channelDbfs, snrDb: pw.snrDb },
     modulation: {
       class: cls,
-      order: null,
-      confidence: decided.confidence,
+      order: cls === "psk" || cls === "qam" || cls === "fsk" || cls === "ook" ? order : null,
+      confidence,
       forced: options.mode !== undefined,
-      method: decided.method,
+      method: classMethod,
       features: numericFeatures(features),
     },
     fm,
     am,
+    digital,
+    fsk: fsk === null ? null : { ...fsk, toneFrequenciesHz: fsk.toneFrequenciesHz.map(toCapture) },
+    ook,
     emission: {
       designator: designator.designator,
       necessaryBandwidthHz: necessary,
@@ -237,6 +290,19 @@ function checkOptions(options: MeasureEmissionOptions, meta: CaptureMeta): void 
   }
   if (options.nominalHz !== undefined && meta.centerHz === null) {
     throw new UsageError("--nominal", `needs the capture's centre frequency: give --center (${meta.path} does not say it)`);
+  }
+  const allowed: Record<string, readonly number[]> = { psk: [2, 4, 8], qam: [16, 32, 64], fsk: [2, 4], ook: [2] };
+  if (options.order !== undefined) {
+    const ok = options.mode === undefined ? [2, 4, 8, 16, 32, 64] : allowed[options.mode];
+    if (ok === undefined || !ok.includes(options.order)) {
+      throw new UsageError("--order", `${options.order} is not an order of ${options.mode ?? "any digital class"} (${ok === undefined ? "no order applies" : ok.join(", ")})`);
+    }
+  }
+  if (options.symbolRateBd !== undefined && !(options.symbolRateBd > 0 && options.symbolRateBd < fs)) {
+    throw new UsageError("--symbol-rate", `${options.symbolRateBd} Bd must be above 0 and below the sample rate ${fs}`);
+  }
+  if (options.rollOff !== undefined && !(options.rollOff > 0 && options.rollOff <= 1)) {
+    throw new UsageError("--rolloff", `${options.rollOff} must be above 0 and at most 1`);
   }
   if (options.xDb !== undefined && !(options.xDb > 0 && options.xDb <= 100)) {
     throw new UsageError("--xdb", `${options.xDb} dB must be between 0 and 100`);
@@ -300,6 +366,9 @@ function noEmission(
     modulation: { class: "noise", order: null, confidence: 1, forced: false, method: "no region of the PSD stands 10 dB above the noise floor", features: {} },
     fm: null,
     am: null,
+    digital: null,
+    fsk: null,
+    ook: null,
     emission: { designator: null, necessaryBandwidthHz: none("Hz", "necessary bandwidth"), method: "no emission" },
     channelPsd: null,
     noiseFloorDbfsPerHz: pass1.noiseFloor.dbfsPerHz,

@@ -12,7 +12,7 @@ import type { CaptureArgs, AnalysedCapture } from "./analyseCapture.js";
 import { healthWarnings } from "./analyseCapture.js";
 import { buildMeasureReport, type MeasureReport } from "../report/measureReport.js";
 import { measureMarkdown } from "../report/measureMarkdown.js";
-import { spectrumFigure, traceFigure } from "../report/measureFigures.js";
+import { constellationFigure, frequencyHistogramFigure, spectrumFigure, traceFigure } from "../report/measureFigures.js";
 import { spectrogramFigure } from "../report/spectrogramFigure.js";
 import { writeFileAtomic } from "../report/index.js";
 import { formatHz } from "../report/format.js";
@@ -108,6 +108,32 @@ async function writeReportFolder(dir: string, a: AnalysedCapture, f: EmissionFig
           ...(mp === null ? [] : [{ orientation: "horizontal" as const, value: mp, label: `m+ ${mp.toFixed(1)} %` }]),
           ...(mn === null ? [] : [{ orientation: "horizontal" as const, value: -mn, label: `m- ${mn.toFixed(1)} %` }]),
         ],
+      }),
+    );
+  }
+  if (f.digital?.recovered != null && f.digital.constellation !== null) {
+    await put(
+      "constellation.png",
+      constellationFigure({
+        name,
+        symbols: f.digital.recovered.symbols,
+        ideal: f.digital.recovered.ideal,
+        constellation: f.digital.constellation,
+        evmRmsPercent: r.digital.evmRmsPercent,
+        merDb: r.digital.merDb,
+        symbolRateBd: r.digital.symbolRateBd,
+      }),
+    );
+  }
+  if (f.fsk !== null) {
+    await put(
+      "frequency-histogram.png",
+      frequencyHistogramFigure({
+        name,
+        binsHz: f.fsk.histogram.binsHz,
+        counts: f.fsk.histogram.counts,
+        channelOffsetHz: f.channel.offsetHz,
+        tonesHz: r.fsk.toneFrequenciesHz ?? [],
       }),
     );
   }

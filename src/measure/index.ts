@@ -49,3 +49,4 @@ export {
 export { recoverSymbols, RECOVERY_DEFAULTS, type Recovered, type RecoveryOptions } from "./pskQamRecovery.js";
 export { fskFigures, FSK_FIGURES_DEFAULTS, type FskFigures, type FskFiguresOptions, type FrequencyHistogram } from "./fskFigures.js";
 export { ookFigures, type OokFigures, type OokFiguresOptions } from "./ookFigures.js";
+export { burstSamples, type Bursts } from "./burstGate.js";

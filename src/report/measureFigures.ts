@@ -4,7 +4,7 @@
  * time with the peak lines. Numbers in, PNG bytes out; the caller writes them.
  */
 import { binFrequencyHz, powerToDb, type WelchPsd } from "../dsp/index.js";
-import { renderLineFigure, type MarkerLine } from "../render/index.js";
+import { renderConstellation, renderHistogram, renderLineFigure, type MarkerLine } from "../render/index.js";
 import { formatHz } from "./format.js";
 
 export interface SpectrumFigureInput {
@@ -94,5 +94,55 @@ export function traceFigure(input: TraceFigureInput): Buffer {
     markers: input.markers,
     widthPx: input.widthPx ?? 1200,
     heightPx: input.heightPx ?? 600,
+  }).png;
+}
+
+/** The recovered constellation as a density plot with the ideal points marked; EVM and MER in the title. */
+export function constellationFigure(input: {
+  readonly name: string;
+  readonly symbols: Float64Array;
+  readonly ideal: Float64Array;
+  readonly constellation: string;
+  readonly evmRmsPercent: number | null;
+  readonly merDb: number | null;
+  readonly symbolRateBd: number | null;
+}): Buffer {
+  const evm = input.evmRmsPercent === null ? "EVM n/a" : `EVM ${input.evmRmsPercent.toFixed(2)} % RMS`;
+  const mer = input.merDb === null ? "" : `, MER ${input.merDb.toFixed(1)} dB`;
+  return renderConstellation({
+    title: `${input.constellation.toUpperCase()}  ${evm}${mer}`,
+    subtitle:
+      `${input.name} · ${input.symbols.length / 2} symbols` +
+      `${input.symbolRateBd === null ? "" : ` at ${input.symbolRateBd.toFixed(1)} Bd`} · crosses: ideal points`,
+    symbols: input.symbols,
+    ideal: input.ideal,
+    widthPx: 900,
+    heightPx: 800,
+  }).png;
+}
+
+/** Histogram of the instantaneous frequency of an FSK emission with its tones marked (offsets from the capture centre). */
+export function frequencyHistogramFigure(input: {
+  readonly name: string;
+  readonly binsHz: ArrayLike<number>;
+  readonly counts: ArrayLike<number>;
+  readonly channelOffsetHz: number;
+  readonly tonesHz: readonly (number | null)[];
+}): Buffer {
+  const bins = Array.from(input.binsHz, (f) => f + input.channelOffsetHz);
+  const markers: MarkerLine[] = [];
+  input.tonesHz.forEach((t, i) => {
+    if (t !== null) markers.push({ orientation: "vertical", value: t, label: `tone ${i + 1}: ${formatHz(t)}` });
+  });
+  return renderHistogram({
+    title: `Instantaneous frequency: ${input.name}`,
+    subtitle: "FM discriminator of the channel; the tones are the histogram's modes",
+    binsCentre: bins,
+    counts: input.counts,
+    x: { name: "Frequency offset", quantity: { kind: "hertz" } },
+    y: { name: "Samples", quantity: { kind: "linear", unit: "count" } },
+    markers,
+    widthPx: 1200,
+    heightPx: 600,
   }).png;
 }

@@ -62,6 +62,23 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
       { label: "Lower sideband", path: "am.lowerSidebandDbc", value: r.am.lowerSidebandDbc, unit: "dBc", digits: 2 },
     );
   }
+  const d = r.digital;
+  rows.push(
+    { label: "Symbol rate", path: "digital.symbolRateBd", value: d.symbolRateBd, unit: "Bd", digits: 2 },
+    { label: "EVM (RMS)", path: "digital.evmRmsPercent", value: d.evmRmsPercent, unit: "%", digits: 2 },
+    { label: "EVM (peak)", path: "digital.evmPeakPercent", value: d.evmPeakPercent, unit: "%", digits: 2 },
+    { label: "MER", path: "digital.merDb", value: d.merDb, unit: "dB", digits: 2 },
+    { label: "IQ origin offset", path: "digital.iqOriginOffsetDb", value: d.iqOriginOffsetDb, unit: "dB", digits: 1 },
+    { label: "Carrier frequency error (recovery)", path: "digital.frequencyErrorHz", value: d.frequencyErrorHz, unit: "Hz", digits: 1 },
+    { label: "Symbols used", path: "digital.symbols", value: d.symbols, unit: "", digits: 0 },
+    { label: "Roll-off used", path: "digital.rollOff", value: d.rollOff, unit: "", digits: 3 },
+    { label: "FSK shift", path: "fsk.shiftHz", value: r.fsk.shiftHz, unit: "Hz", digits: 1 },
+    { label: "FSK modulation index h", path: "fsk.modulationIndex", value: r.fsk.modulationIndex, unit: "", digits: 3 },
+    ...(r.fsk.toneFrequenciesHz ?? []).map((t, i) => ({ label: `FSK tone ${i + 1} (offset)`, path: `fsk.toneFrequenciesHz.${i}`, value: t, unit: "Hz", digits: 1 })),
+    { label: "OOK on/off ratio", path: "ook.onOffRatioDb", value: r.ook.onOffRatioDb, unit: "dB", digits: 1 },
+    { label: "OOK duty cycle", path: "ook.dutyCyclePercent", value: r.ook.dutyCyclePercent, unit: "%", digits: 1 },
+    { label: "OOK on level", path: "ook.onLevelDbfs", value: r.ook.onLevelDbfs, unit: "dBFS", digits: 1 },
+  );
   rows.push({ label: "Necessary bandwidth (formula)", path: "emission.necessaryBandwidthHz", value: r.emission.necessaryBandwidthHz, unit: "Hz", digits: 0 });
   const table = rows
     .map((row) => cell(r, row))
@@ -86,7 +103,7 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
     "",
     `## Result`,
     "",
-    `Class **${r.modulation.class}**${r.modulation.forced ? " (given with --mode)" : ` (confidence ${(r.modulation.confidence * 100).toFixed(0)} %)`}` +
+    `Class **${r.modulation.class}${r.modulation.order === null ? "" : ` (order ${r.modulation.order}${r.digital.constellation === null ? "" : `, ${r.digital.constellation}`})`}**${r.modulation.forced ? " (given with --mode)" : ` (confidence ${(r.modulation.confidence * 100).toFixed(0)} %)`}` +
       (r.emission.designator === null ? ", no emission designator." : `, emission designator **${r.emission.designator}**.`),
     "",
     `| Figure | Value | Uncertainty (k = 2) |`,

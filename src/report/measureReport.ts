@@ -37,9 +37,12 @@ export interface MeasureReport {
     readonly modulationDepthPercent: N; readonly positiveDepthPercent: N; readonly negativeDepthPercent: N;
     readonly modulatingFrequencyHz: N; readonly upperSidebandDbc: N; readonly lowerSidebandDbc: N;
   } | null;
-  readonly digital: { readonly symbolRateBd: N; readonly evmRmsPercent: N; readonly evmPeakPercent: N; readonly merDb: N; readonly symbols: N };
-  readonly fsk: { readonly shiftHz: N; readonly modulationIndex: N };
-  readonly ook: { readonly onOffRatioDb: N; readonly dutyCyclePercent: N };
+  readonly digital: {
+    readonly symbolRateBd: N; readonly evmRmsPercent: N; readonly evmPeakPercent: N; readonly merDb: N; readonly symbols: N;
+    readonly iqOriginOffsetDb: N; readonly frequencyErrorHz: N; readonly rollOff: N; readonly constellation: string | null;
+  };
+  readonly fsk: { readonly shiftHz: N; readonly modulationIndex: N; readonly toneFrequenciesHz: readonly N[] | null };
+  readonly ook: { readonly onOffRatioDb: N; readonly dutyCyclePercent: N; readonly onLevelDbfs: N };
   readonly emission: { readonly designator: string | null; readonly necessaryBandwidthHz: N };
   readonly uncertainty: Readonly<Record<string, number>>;
   readonly methods: Readonly<Record<string, string>>;
@@ -140,15 +143,38 @@ export function buildMeasureReport(
             upperSidebandDbc: l.take("am.upperSidebandDbc", am.upperSidebandDbc),
             lowerSidebandDbc: l.take("am.lowerSidebandDbc", am.lowerSidebandDbc),
           },
-    digital: { symbolRateBd: null, evmRmsPercent: null, evmPeakPercent: null, merDb: null, symbols: null },
-    fsk: { shiftHz: null, modulationIndex: null },
-    ook: { onOffRatioDb: null, dutyCyclePercent: null },
+    digital: {
+      symbolRateBd: f.digital === null ? null : l.take("digital.symbolRateBd", f.digital.symbolRateBd),
+      evmRmsPercent: f.digital === null ? null : l.take("digital.evmRmsPercent", f.digital.evmRmsPercent),
+      evmPeakPercent: f.digital === null ? null : l.take("digital.evmPeakPercent", f.digital.evmPeakPercent),
+      merDb: f.digital === null ? null : l.take("digital.merDb", f.digital.merDb),
+      symbols: f.digital?.symbols ?? null,
+      iqOriginOffsetDb: f.digital === null ? null : l.take("digital.iqOriginOffsetDb", f.digital.iqOriginOffsetDb),
+      frequencyErrorHz: f.digital === null ? null : l.take("digital.frequencyErrorHz", f.digital.frequencyErrorHz),
+      rollOff: f.digital?.rollOff ?? null,
+      constellation: f.digital?.constellation ?? null,
+    },
+    fsk: {
+      shiftHz: f.fsk === null ? null : l.take("fsk.shiftHz", f.fsk.shiftHz),
+      modulationIndex: f.fsk === null ? null : l.take("fsk.modulationIndex", f.fsk.modulationIndex),
+      toneFrequenciesHz: f.fsk === null ? null : f.fsk.toneFrequenciesHz.map((t, i) => l.take(`fsk.toneFrequenciesHz.${i}`, t)),
+    },
+    ook: {
+      onOffRatioDb: f.ook === null ? null : l.take("ook.onOffRatioDb", f.ook.onOffRatioDb),
+      dutyCyclePercent: f.ook === null ? null : l.take("ook.dutyCyclePercent", f.ook.dutyCyclePercent),
+      onLevelDbfs: f.ook === null ? null : l.take("ook.onLevelDbfs", f.ook.onLevelDbfs),
+    },
     emission: {
       designator: f.emission.designator,
       necessaryBandwidthHz: l.take("emission.necessaryBandwidthHz", f.emission.necessaryBandwidthHz),
     },
     uncertainty: l.uncertainty,
-    methods: { ...l.methods, "modulation.class": f.modulation.method, "emission.designator": f.emission.method },
+    methods: {
+      ...l.methods,
+      "modulation.class": f.modulation.method,
+      "emission.designator": f.emission.method,
+      ...(f.digital?.rollOffMethod == null ? {} : { "digital.rollOff": f.digital.rollOffMethod }),
+    },
     unavailable: l.unavailable,
     warnings: [...warnings, ...f.warnings.filter((w) => !warnings.includes(w)), ...l.warnings.filter((w) => !warnings.includes(w) && !f.warnings.includes(w))],
   };

@@ -11,7 +11,7 @@ function withU(r: MeasureReport, path: string, value: number | null, show: (x: n
 export function measureText(r: MeasureReport, files: readonly string[]): string {
   const hz = (x: number): string => formatHz(x, 3);
   const rows: [string, string][] = [
-    ["class", `${r.modulation.class}${r.modulation.forced ? " (given)" : `, confidence ${(r.modulation.confidence * 100).toFixed(0)} %`}`],
+    ["class", `${r.modulation.class}${r.modulation.order === null ? "" : ` ${r.modulation.order}`}${r.modulation.forced ? " (given)" : `, confidence ${(r.modulation.confidence * 100).toFixed(0)} %`}`],
     ["designator", r.emission.designator ?? "n/a"],
     ["carrier offset", withU(r, "carrier.offsetHz", r.carrier.offsetHz, hz)],
     ...(r.carrier.frequencyHz === null ? [] : ([["carrier frequency", withU(r, "carrier.frequencyHz", r.carrier.frequencyHz, hz)]] as [string, string][])),
@@ -38,6 +38,23 @@ export function measureText(r: MeasureReport, files: readonly string[]): string 
       ["  m+ / m−", `${withU(r, "am.positiveDepthPercent", r.am.positiveDepthPercent, (x) => `${x.toFixed(1)} %`)} / ${withU(r, "am.negativeDepthPercent", r.am.negativeDepthPercent, (x) => `${x.toFixed(1)} %`)}`],
       ["modulating frequency", withU(r, "am.modulatingFrequencyHz", r.am.modulatingFrequencyHz, hz)],
     );
+  }
+  const d = r.digital;
+  const pct = (x: number): string => `${x.toFixed(2)} %`;
+  if (d.symbolRateBd !== null) rows.push(["symbol rate", withU(r, "digital.symbolRateBd", d.symbolRateBd, (x) => `${x.toFixed(2)} Bd`)]);
+  if (d.evmRmsPercent !== null) {
+    rows.push(
+      ["constellation", `${d.constellation ?? "?"}, roll-off ${d.rollOff?.toFixed(3) ?? "?"}, ${d.symbols ?? 0} symbols`],
+      ["EVM RMS / peak", `${withU(r, "digital.evmRmsPercent", d.evmRmsPercent, pct)} / ${d.evmPeakPercent === null ? "n/a" : pct(d.evmPeakPercent)}`],
+      ["MER", withU(r, "digital.merDb", d.merDb, (x) => `${x.toFixed(2)} dB`)],
+    );
+  }
+  if (r.fsk.shiftHz !== null) {
+    rows.push(["FSK shift / h", `${withU(r, "fsk.shiftHz", r.fsk.shiftHz, hz)} / ${r.fsk.modulationIndex === null ? "n/a" : r.fsk.modulationIndex.toFixed(3)}`]);
+  }
+  if (r.ook.dutyCyclePercent !== null) {
+    rows.push(["OOK duty cycle", withU(r, "ook.dutyCyclePercent", r.ook.dutyCyclePercent, (x) => `${x.toFixed(1)} %`)]);
+    rows.push(["OOK on/off ratio", withU(r, "ook.onOffRatioDb", r.ook.onOffRatioDb, (x) => `${x.toFixed(1)} dB`)]);
   }
   const out = files.length === 0 ? "" : `\nWritten: ${files.join(", ")}\n`;
   return `${r.capture.path}\n${alignedRows(rows)}\n${out}Results are indicative; see iqaudit --help for cautions.\n`;

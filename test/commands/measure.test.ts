@@ -8,7 +8,7 @@ import { PNG } from "pngjs";
 import { describe, expect, it } from "vitest";
 import { encodeSamples } from "../../src/capture/index.js";
 import { measureCommand } from "../../src/commands/measure.js";
-import { SeededRandom, amFromAudio, complexNoise, fmFromAudio, frequencyShift, toneAudio } from "../../src/scenario/index.js";
+import { SeededRandom, amFromAudio, complexNoise, fmFromAudio, frequencyShift, nrzLevels, randomSymbols, rrcPsk, toneAudio } from "../../src/scenario/index.js";
 import { runCli } from "../helpers/runCli.js";
 
 const dir = mkdtempSync(join(tmpdir(), "iqaudit-measure-"));
@@ -153,4 +153,47 @@ describe("measure bad input (interface.md, exit codes)", () => {
       expect(lines[0]).toContain(mentions);
     });
   }
+});
+
+describe("measureCommand on digital emissions", () => {
+  it("measures QPSK blind: class, order, symbol rate, EVM near 1/sqrt(SNR), G1D (Shafik et al. 2006; RR Appendix 1)", async () => {
+    const rs = 25_000;
+    const count = 400_000; // 1.6 s at 250 kS/s, 40 000 symbols
+    const symbols = randomSymbols(new SeededRandom(21), "qpsk", Math.ceil((count / fs) * rs) + 16);
+    const x = frequencyShift(rrcPsk(symbols, 0, count, { symbolRateBd: rs, sampleRateHz: fs, rollOff: 0.35, amplitude: 0.2 }), fs, 20_000);
+    // Es/N0 = (P/Rs)/(σ²/fs) = 30 dB with P = 0.04: σ² = 0.04·(fs/Rs)/1000.
+    const p = join(dir, "qpsk_250ksps.cf32");
+    writeFileSync(p, encodeSamples("cf32_le", withNoise(x, (0.04 * (fs / rs)) / 1000, 17)));
+    const { report, files } = await measureCommand(p, { capture: {}, outDir: join(dir, "qpsk-report") });
+    expect(report.modulation.class).toBe("psk");
+    expect(report.modulation.order).toBe(4);
+    // Symbol rate within 0.1 % (issue 4).
+    expect(Math.abs((report.digital.symbolRateBd as number) - rs) / rs).toBeLessThan(1e-3);
+    // EVM ≈ 1/sqrt(Es/N0) = 3.16 % at 30 dB, within 10 % relative (Shafik, Rahman & Islam 2006).
+    expect(Math.abs((report.digital.evmRmsPercent as number) - 3.162) / 3.162).toBeLessThan(0.1);
+    // MER = −20 log10(EVM) (ETSI TR 101 290; REFERENCES.md §6).
+    expect(report.digital.merDb as number).toBeCloseTo(-20 * Math.log10((report.digital.evmRmsPercent as number) / 100), 1);
+    // Carrier at +20 kHz.
+    expect(Math.abs((report.carrier.offsetHz as number) - 20_000)).toBeLessThan(5);
+    expect(report.emission.designator).toMatch(/G1D$/);
+    expect(files.map((f) => f.split("/").pop())).toContain("constellation.png");
+  });
+
+  it("measures 2-FSK: shift, rate and index within 1 % (closed form of the keying), F1D", async () => {
+    const rb = 4800;
+    const shift = 3600;
+    const count = 250_000;
+    const bitsRng = new SeededRandom(5);
+    const bits = Array.from({ length: Math.ceil((count / fs) * rb) + 2 }, () => bitsRng.integer(2));
+    const levels = nrzLevels(bits, rb, fs, 0, count);
+    const { iq } = fmFromAudio(levels, fs, shift / 2, 0, 0.3);
+    const p = join(dir, "fsk_250ksps.cf32");
+    writeFileSync(p, encodeSamples("cf32_le", withNoise(frequencyShift(iq, fs, -30_000), 1e-6, 3)));
+    const { report } = await measureCommand(p, { capture: {} });
+    expect(report.modulation.class).toBe("fsk");
+    expect(Math.abs((report.fsk.shiftHz as number) - shift) / shift).toBeLessThan(0.01);
+    expect(Math.abs((report.digital.symbolRateBd as number) - rb) / rb).toBeLessThan(0.01);
+    expect(Math.abs((report.fsk.modulationIndex as number) - shift / rb) / (shift / rb)).toBeLessThan(0.01);
+    expect(report.emission.designator).toMatch(/F1D$/);
+  });
 });

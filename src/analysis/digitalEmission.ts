@@ -1,0 +1,166 @@
+/**
+ * The figures of a digital emission in its channel baseband: symbol rate (given, or blind from
+ * the cyclostationary line), then for PSK/QAM the matched-filter recovery with EVM/MER, for FSK
+ * the tones, shift and index, for OOK the on/off figures. Each as Measurements; see
+ * docs/methods.md ("Digital: ...").
+ */
+import type { ConstellationKind } from "../dsp/index.js";
+import {
+  fskFigures,
+  necessaryBandwidthFmHz,
+  notAvailable,
+  measurement,
+  ookFigures,
+  recoverSymbols,
+  symbolRateBlind,
+  type Measurement,
+} from "../measure/index.js";
+import type { DigitalFiguresOut, FskFiguresOut, OokFiguresOut } from "./emissionFigures.js";
+
+export interface DigitalHints {
+  readonly order?: number | undefined;
+  readonly symbolRateBd?: number | undefined;
+  readonly rollOff?: number | undefined;
+}
+
+export interface DigitalResult {
+  readonly digital: DigitalFiguresOut;
+  readonly fsk: FskFiguresOut | null;
+  readonly ook: OokFiguresOut | null;
+  /** Carrier (or centre) offset from the channel centre, Hz, by the method that suits the class. */
+  readonly carrierHz: Measurement | null;
+  readonly order: number | null;
+  readonly necessaryBandwidthHz: Measurement | null;
+  readonly warnings: readonly string[];
+}
+
+/**
+ * 99 % OBW of RRC-shaped linear modulation over Rs, by roll-off (REFERENCES.md §3, computed from
+ * the raised-cosine power spectrum). Inverted by linear interpolation to estimate α from a
+ * measured OBW and symbol rate.
+ */
+const RRC_OBW_TABLE: readonly (readonly [number, number])[] = [
+  [0.2, 1.0731], [0.22, 1.0849], [0.25, 1.1031], [0.35, 1.1667], [0.5, 1.268], [1.0, 1.633],
+];
+
+export function rollOffFromObw(obwHz: number, symbolRateBd: number): number {
+  const ratio = obwHz / symbolRateBd;
+  const t = RRC_OBW_TABLE;
+  if (ratio <= (t[0] as readonly [number, number])[1]) return (t[0] as readonly [number, number])[0];
+  for (let i = 1; i < t.length; i++) {
+    const [a1, r1] = t[i] as readonly [number, number];
+    const [a0, r0] = t[i - 1] as readonly [number, number];
+    if (ratio <= r1) return a0 + ((ratio - r0) / (r1 - r0)) * (a1 - a0);
+  }
+  return 1;
+}
+
+const PSK_KIND: Readonly<Record<number, ConstellationKind>> = { 2: "bpsk", 4: "qpsk", 8: "8psk" };
+const QAM_KIND: Readonly<Record<number, ConstellationKind>> = { 16: "16qam", 32: "32qam", 64: "64qam" };
+const KIND_ORDER: Readonly<Record<ConstellationKind, number>> = { bpsk: 2, qpsk: 4, "8psk": 8, "16qam": 16, "32qam": 32, "64qam": 64 };
+
+export function digitalEmission(
+  iq: Float32Array,
+  sampleRateHz: number,
+  cls: "psk" | "qam" | "fsk" | "ook",
+  order: number | null,
+  obwHz: number | null,
+  hints: DigitalHints,
+): DigitalResult {
+  const warnings: string[] = [];
+  const none = (unit: string, what: string, why: string): Measurement => notAvailable(unit, what, why);
+  if (cls === "fsk") {
+    const fskOrder = order === 4 ? 4 : 2;
+    const f = fskFigures(iq, sampleRateHz, { order: fskOrder, ...(hints.symbolRateBd === undefined ? {} : { symbolRateBd: hints.symbolRateBd }) });
+    const tones = f.toneFrequenciesHz.map((t) => t.value).filter((v): v is number => v !== null);
+    const centre = tones.length > 0 ? tones.reduce((a, b) => a + b, 0) / tones.length : null;
+    const rate = f.symbolRateBd.value;
+    const shift = f.shiftHz.value;
+    return {
+      digital: emptyDigital(f.symbolRateBd, "no constellation: frequency keying"),
+      fsk: { shiftHz: f.shiftHz, modulationIndex: f.modulationIndex, toneFrequenciesHz: f.toneFrequenciesHz, histogram: f.histogram },
+      ook: null,
+      carrierHz: centre === null ? null : measurement(centre, "Hz", f.toneFrequenciesHz[0]?.uncertainty ?? null, "centre of the FSK tones (mean of the tone frequencies)"),
+      order: fskOrder,
+      necessaryBandwidthHz:
+        rate !== null && shift !== null
+          ? measurement(
+              necessaryBandwidthFmHz(rate / 2, ((fskOrder - 1) * shift) / 2, 1.2),
+              "Hz",
+              null,
+              `47 CFR 2.202(g) F1B: 2M + 2DK with M = B/2 = ${(rate / 2).toFixed(0)} Hz, D = ${(((fskOrder - 1) * shift) / 2).toFixed(0)} Hz, K = 1.2`,
+            )
+          : null,
+      warnings,
+    };
+  }
+  if (cls === "ook") {
+    const o = ookFigures(iq, sampleRateHz, hints.symbolRateBd === undefined ? {} : { symbolRateBd: hints.symbolRateBd });
+    return {
+      digital: emptyDigital(o.symbolRateBd, "no constellation: on-off keying"),
+      fsk: null,
+      ook: { onOffRatioDb: o.onOffRatioDb, dutyCyclePercent: o.dutyCyclePercent, onLevelDbfs: o.onLevelDbfs },
+      carrierHz: null,
+      order: 2,
+      necessaryBandwidthHz: null,
+      warnings,
+    };
+  }
+  // PSK / QAM: rate, roll-off, recovery.
+  const rate =
+    hints.symbolRateBd !== undefined
+      ? measurement(hints.symbolRateBd, "Bd", null, "given with --symbol-rate")
+      : symbolRateBlind(iq, sampleRateHz, obwHz === null ? {} : { minBd: obwHz / 1.7, maxBd: obwHz });
+  const rs = rate.value;
+  if (rs === null) {
+    warnings.push("no symbol rate: the constellation could not be recovered");
+    return { digital: emptyDigital(rate, "no symbol rate"), fsk: null, ook: null, carrierHz: null, order, necessaryBandwidthHz: null, warnings };
+  }
+  const rollOff = hints.rollOff ?? (obwHz === null ? 0.35 : Math.min(1, Math.max(0.1, rollOffFromObw(obwHz, rs))));
+  const rollOffMethod =
+    hints.rollOff !== undefined
+      ? "given with --rolloff"
+      : obwHz === null
+        ? "default 0.35"
+        : `from the 99 % OBW over the symbol rate, ${(obwHz / rs).toFixed(4)}, through the RRC table (raised-cosine spectrum)`;
+  const kind = order === null ? undefined : cls === "psk" ? PSK_KIND[order] : QAM_KIND[order];
+  const r = recoverSymbols(iq, sampleRateHz, { symbolRateBd: rs, rollOff, ...(kind === undefined ? {} : { order: { kind } }) });
+  warnings.push(...r.warnings);
+  return {
+    digital: {
+      symbolRateBd: rate,
+      evmRmsPercent: r.evm.evmRmsPercent,
+      evmPeakPercent: r.evm.evmPeakPercent,
+      merDb: r.evm.merDb,
+      iqOriginOffsetDb: r.evm.iqOriginOffsetDb,
+      frequencyErrorHz: r.frequencyErrorHz,
+      symbols: r.evm.symbols,
+      rollOff,
+      rollOffMethod,
+      constellation: r.kind,
+      recovered: { symbols: r.symbols, ideal: r.ideal },
+    },
+    fsk: null,
+    ook: null,
+    carrierHz: r.frequencyErrorHz,
+    order: KIND_ORDER[r.kind],
+    necessaryBandwidthHz: null,
+    warnings,
+  };
+
+  function emptyDigital(symbolRate: Measurement, why: string): DigitalFiguresOut {
+    return {
+      symbolRateBd: symbolRate,
+      evmRmsPercent: none("Percent", "EVM (3GPP TS 36.141 style)", why),
+      evmPeakPercent: none("Percent", "peak EVM", why),
+      merDb: none("Db", "MER (ETSI TR 101 290)", why),
+      iqOriginOffsetDb: none("Db", "IQ origin offset", why),
+      frequencyErrorHz: none("Hz", "carrier frequency error", why),
+      symbols: null,
+      rollOff: null,
+      rollOffMethod: null,
+      constellation: null,
+      recovered: null,
+    };
+  }
+}
