@@ -93,6 +93,11 @@ export async function measureEmission(
   warnings.push(...pass2.warnings);
   const fsc = pass2.sampleRateHz;
   const half = widthHz / 2;
+  // The audio low-pass must fit below the channel's Nyquist frequency (with its transition band).
+  const audioHz = Math.min(audioBandwidthHz, 0.39 * fsc);
+  if (audioHz < audioBandwidthHz) {
+    warnings.push(`the audio low-pass is narrowed from ${audioBandwidthHz} Hz to ${audioHz.toFixed(0)} Hz to fit the ${fsc.toFixed(0)} S/s channel (widen --channel to keep it)`);
+  }
   const psd = channelPsd(pass2.iq, fsc, widthHz);
   if (psd === null) {
     warnings.push("the channel holds too few samples to estimate its spectrum");
@@ -145,7 +150,7 @@ export async function measureEmission(
   let ook: OokFiguresOut | null = null;
   let necessary: Measurement = notAvailable("Hz", "47 CFR 2.202(g) / ITU-R SM.1138", "no necessary-bandwidth formula applies to this class");
   if (cls === "fm") {
-    const f = fmFigures(iq, fsc, { audioBandwidthHz });
+    const f = fmFigures(iq, fsc, { audioBandwidthHz: audioHz });
     carrier = f.carrierOffsetHz;
     const beta = f.modulationIndex.value;
     const fmod = f.modulatingFrequencyHz.value;
@@ -181,7 +186,7 @@ export async function measureEmission(
   } else if (cls === "cw" || cls === "am") {
     carrier = toneFrequency(iq, fsc);
     if (cls === "am") {
-      const a = amFigures(iq, fsc, { audioBandwidthHz });
+      const a = amFigures(iq, fsc, { audioBandwidthHz: audioHz });
       const vc = a.carrierAmplitudeFs.value ?? 1;
       am = {
         modulationDepthPercent: a.modulationDepthPercent,
@@ -209,7 +214,7 @@ export async function measureEmission(
     order = d.order;
     warnings.push(...d.warnings);
     if (d.necessaryBandwidthHz !== null) necessary = d.necessaryBandwidthHz;
-    carrier = d.carrierHz !== null && d.carrierHz.value !== null ? d.carrierHz : cls === "ook" ? toneFrequency(iq, fsc) : psdCentroidHz(psd, -half, half, floor);
+    carrier = d.carrierHz !== null && d.carrierHz.value !== null ? d.carrierHz : psdCentroidHz(psd, -half, half, floor);
   } else {
     carrier = psdCentroidHz(psd, -half, half, floor);
   }

@@ -4,7 +4,8 @@
  * each capability of the tool.
  */
 import { basename, join } from "node:path";
-import { writeScenario, type ScenarioFile } from "../scenario/index.js";
+import { SCENARIO_CAPTURES, emissionEdgesHz, scenarioTransmitter, writeScenario, type ScenarioFile } from "../scenario/index.js";
+import type { MeasureReport } from "../report/measureReport.js";
 import { inspectCommand } from "./inspect.js";
 import { spectrogramCommand } from "./spectrogram.js";
 import { measureCommand } from "./measure.js";
@@ -46,12 +47,13 @@ export async function demoCommand(options: DemoOptions): Promise<DemoSummary> {
     const png = join(dir, "spectrogram.png");
     const s = await spectrogramCommand(file.path, { capture, outputPath: png });
     written.push(inspectJson, join(dir, "inspect.txt"), png);
-    // The strongest emission of each capture, measured into its own report folder.
-    const measured = await measureCommand(file.path, { capture, outDir: join(dir, "measure") });
-    written.push(...measured.files);
-    const m = measured.report;
+    // Each transmitter of the capture, measured in its assigned channel against its nominal frequency.
+    const measured = await measureTransmitters(file, capture, dir);
+    for (const m of measured) written.push(...m.files);
     warnings.push(...report.warnings.map((w) => `${basename(file.path)}: ${w}`));
-    warnings.push(...measured.report.warnings.filter((w) => !report.warnings.includes(w)).map((w) => `${basename(file.path)} measure: ${w}`));
+    for (const m of measured) {
+      warnings.push(...m.report.warnings.filter((w) => !report.warnings.includes(w)).map((w) => `${basename(file.path)} ${m.label}: ${w}`));
+    }
     const q = report.quality;
     lines.push(
       `${basename(file.path)}: ${file.description}`,
@@ -59,12 +61,8 @@ export async function demoCommand(options: DemoOptions): Promise<DemoSummary> {
         `noise floor ${q.noiseFloorDbfsPerHz.toFixed(1)} dBFS/Hz; strongest line ${formatHz(report.spectrum.peakOffsetHz)} offset ` +
         `at ${report.spectrum.peakDbfs.toFixed(1)} dBFS; clipping ${q.clippingPercent.toFixed(3)} %; ` +
         `IQ ${q.iqGainImbalanceDb.toFixed(2)} dB / ${q.iqPhaseImbalanceDeg.toFixed(2)}°`,
-      `  strongest emission: ${m.modulation.class} at ${m.carrier.offsetHz === null ? "?" : formatHz(m.carrier.offsetHz)} offset` +
-        `, OBW ${m.bandwidth.occupiedHz === null ? "?" : formatHz(m.bandwidth.occupiedHz)}, designator ${m.emission.designator ?? "n/a"}` +
-        (m.fm === null || m.fm.peakDeviationHz === null ? "" : `, peak deviation ${formatHz(m.fm.peakDeviationHz)}`) +
-        (m.fm === null || m.fm.toneHz === null ? "" : `, tone ${m.fm.toneHz.toFixed(1)} Hz`) +
-        (m.am === null || m.am.modulationDepthPercent === null ? "" : `, depth ${m.am.modulationDepthPercent.toFixed(1)} %`),
-      `  -> ${inspectJson}, ${png} (${s.rows} rows), ${join(dir, "measure", "report.md")}`,
+      ...measured.map((m) => `  ${m.label}: ${measuredLine(m.report)}\n    -> ${m.files[m.files.length - 1] ?? ""}`),
+      `  -> ${inspectJson}, ${png} (${s.rows} rows)`,
       "",
     );
   }
@@ -80,4 +78,51 @@ export async function demoCommand(options: DemoOptions): Promise<DemoSummary> {
  */
 function scenarioArgs(file: ScenarioFile): CaptureArgs {
   return file.container === "wav" ? { centerHz: file.centerHz } : {};
+}
+
+interface MeasuredTransmitter {
+  readonly label: string;
+  readonly report: MeasureReport;
+  readonly files: readonly string[];
+}
+
+/** The scenario's transmitters in this capture, each measured in its channel (skipped when the channel is not inside the capture). */
+async function measureTransmitters(file: ScenarioFile, capture: CaptureArgs, dir: string): Promise<MeasuredTransmitter[]> {
+  const scenario = SCENARIO_CAPTURES.find((c) => c.id === file.captureId);
+  if (scenario === undefined) return [];
+  const out: MeasuredTransmitter[] = [];
+  for (const e of scenario.emissions) {
+    const tx = scenarioTransmitter(e.transmitterId);
+    const offsetHz = tx.nominalFrequencyHz - scenario.centerHz;
+    // The channel: the emission's own band (as its SigMF annotation gives it) with a 25 % margin,
+    // at most the assigned channel spacing.
+    const edges = emissionEdgesHz(tx);
+    const widthHz = Math.min(tx.channelSpacingHz, Math.max(1.25 * (edges.upperHz - edges.lowerHz), 2000));
+    if (Math.abs(offsetHz) + widthHz / 2 > scenario.sampleRateHz / 2) continue;
+    const r = await measureCommand(file.path, {
+      capture,
+      channel: { offsetHz, widthHz },
+      nominalHz: tx.nominalFrequencyHz,
+      outDir: join(dir, `measure-${tx.id}`),
+    });
+    out.push({ label: tx.label, report: r.report, files: r.files });
+  }
+  return out;
+}
+
+function measuredLine(m: MeasureReport): string {
+  const parts = [
+    `${m.modulation.class}${m.modulation.order === null ? "" : ` ${m.modulation.order}`}`,
+    `designator ${m.emission.designator ?? "n/a"}`,
+    m.carrier.errorPpm === null ? "" : `error ${m.carrier.errorPpm.toFixed(3)} ppm`,
+    m.bandwidth.occupiedHz === null ? "" : `OBW ${formatHz(m.bandwidth.occupiedHz)}`,
+    m.fm?.peakDeviationHz == null ? "" : `peak deviation ${formatHz(m.fm.peakDeviationHz)}`,
+    m.fm?.toneHz == null ? "" : `tone ${m.fm.toneHz.toFixed(1)} Hz`,
+    m.am?.modulationDepthPercent == null ? "" : `depth ${m.am.modulationDepthPercent.toFixed(1)} %`,
+    m.digital.symbolRateBd === null ? "" : `${m.digital.symbolRateBd.toFixed(0)} Bd`,
+    m.digital.evmRmsPercent === null ? "" : `EVM ${m.digital.evmRmsPercent.toFixed(2)} %`,
+    m.fsk.shiftHz === null ? "" : `shift ${formatHz(m.fsk.shiftHz)}`,
+    m.ook.dutyCyclePercent === null ? "" : `duty ${m.ook.dutyCyclePercent.toFixed(1)} %`,
+  ];
+  return parts.filter((p) => p !== "").join(", ");
 }
