@@ -19,6 +19,7 @@
  * with no carrier line (common practice, e.g. the centre of a PSK or noise-like emission).
  */
 import { binFrequencyHz, equivalentDegreesOfFreedom, fftPlan, type WelchPsd } from "../dsp/index.js";
+import { refinePeak } from "./periodogramPeak.js";
 import { measurement, notAvailable, type Measurement } from "./measurement.js";
 
 const TONE_METHOD = "FFT peak, Candan 2011 interpolation, ML (Rife-Boorstyn 1974) refinement; ±2σ Cramér-Rao bound";
@@ -67,13 +68,7 @@ export function toneFrequency(iq: Float32Array | Float64Array, sampleRateHz: num
     if (Math.abs(delta) <= 0.5) nu += delta * step;
   }
   const c = (n - 1) / 2;
-  for (let iter = 0; iter < 3; iter++) {
-    const [g, h] = periodogramSlope(iq, n, nu, c);
-    if (!(h < 0)) break;
-    const move = Math.max(-0.5 * step, Math.min(0.5 * step, -g / h));
-    nu += move;
-    if (Math.abs(move) < 1e-6 * step) break;
-  }
+  nu = refinePeak(Float64Array.from(iq.subarray(0, 2 * n)), nu, 3);
   const peak = dtft(iq, n, nu, c);
   const a2 = (peak[0] * peak[0] + peak[1] * peak[1]) / (n * n);
   let total = 0;
@@ -105,29 +100,6 @@ function dtft(iq: Float32Array | Float64Array, n: number, nu: number, c: number)
   return [re, im];
 }
 
-/** First and second derivative of |X(ν)|² in ν, with time centred on c for conditioning. */
-function periodogramSlope(iq: Float32Array | Float64Array, n: number, nu: number, c: number): [number, number] {
-  let x0r = 0, x0i = 0, x1r = 0, x1i = 0, x2r = 0, x2i = 0;
-  const w = -2 * Math.PI * nu;
-  for (let k = 0; k < n; k++) {
-    const t = k - c;
-    const ph = w * t;
-    const cs = Math.cos(ph);
-    const sn = Math.sin(ph);
-    const i = iq[2 * k] as number;
-    const q = iq[2 * k + 1] as number;
-    const er = i * cs - q * sn;
-    const ei = i * sn + q * cs;
-    // d/dν multiplies by −j2πt; d²/dν² by −(2πt)².
-    const a = 2 * Math.PI * t;
-    x0r += er; x0i += ei;
-    x1r += a * ei; x1i -= a * er;
-    x2r -= a * a * er; x2i -= a * a * ei;
-  }
-  const g = 2 * (x0r * x1r + x0i * x1i);
-  const h = 2 * (x1r * x1r + x1i * x1i + x0r * x2r + x0i * x2i);
-  return [g, h];
-}
 
 /**
  * Power-weighted mean frequency Σ f_k·e_k / Σ e_k, e_k = max(0, PSD_k − floor), over the bins
