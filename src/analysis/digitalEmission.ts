@@ -55,6 +55,9 @@ export function rollOffFromObw(obwHz: number, symbolRateBd: number): number {
   return 1;
 }
 
+/** The symbol-rate line is found on at most this many samples (bounds its transform to 2^20 points). */
+const RATE_MAX_SAMPLES = 1 << 19;
+
 const PSK_KIND: Readonly<Record<number, ConstellationKind>> = { 2: "bpsk", 4: "qpsk", 8: "8psk" };
 const QAM_KIND: Readonly<Record<number, ConstellationKind>> = { 16: "16qam", 32: "32qam", 64: "64qam" };
 const KIND_ORDER: Readonly<Record<ConstellationKind, number>> = { bpsk: 2, qpsk: 4, "8psk": 8, "16qam": 16, "32qam": 32, "64qam": 64 };
@@ -110,7 +113,7 @@ export function digitalEmission(
   const rate =
     hints.symbolRateBd !== undefined
       ? measurement(hints.symbolRateBd, "Bd", null, "given with --symbol-rate")
-      : symbolRateBlind(iq, sampleRateHz, obwHz === null ? {} : { minBd: obwHz / 1.7, maxBd: obwHz });
+      : symbolRateBlind(iq.subarray(0, Math.min(iq.length, 2 * RATE_MAX_SAMPLES)), sampleRateHz, obwHz === null ? {} : { minBd: obwHz / 1.7, maxBd: obwHz });
   const rs = rate.value;
   if (rs === null) {
     warnings.push("no symbol rate: the constellation could not be recovered");

@@ -110,7 +110,7 @@ export async function measureEmission(
   const analog = classifyAnalog(features);
   const decided =
     options.mode === undefined
-      ? classifyEmission(pass2.iq, fsc, psd, { snrDb: pw.snrDb.value, analog, noiseFloorPerHz: floor })
+      ? classifyEmission(classificationRecord(pass2.iq), fsc, psd, { snrDb: pw.snrDb.value, analog, noiseFloorPerHz: floor })
       : { class: options.mode, order: options.order ?? null, confidence: 1, method: "given with --mode", features: null };
   let cls: DesignatorClass = decided.class;
   let order: number | null = options.order ?? decided.order;
@@ -332,6 +332,16 @@ function channelPsd(iq: Float32Array, fs: number, widthHz: number): WelchPsd | n
   welch.push(iq, 0);
   return welch.finish();
 }
+
+/**
+ * The part of the channel the classifier looks at: its first 2^16 samples (about a second at the
+ * usual channel rates; thousands of symbols of any data link). The digital features (cumulants,
+ * keying histograms, the symbol-rate line) are then bounded in time and memory whatever the span.
+ */
+function classificationRecord(iq: Float32Array): Float32Array {
+  return iq.subarray(0, Math.min(iq.length, 2 * CLASSIFY_MAX_SAMPLES));
+}
+const CLASSIFY_MAX_SAMPLES = 1 << 16;
 
 function shiftTimes(t: ArrayLike<number>, startS: number): Float64Array {
   const out = new Float64Array(t.length);
