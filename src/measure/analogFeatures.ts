@@ -24,7 +24,8 @@
  *
  * Records longer than 2^20 samples are analysed over their first 2^20 samples.
  */
-import { fftPlan, noiseFloor, type WelchPsd } from "../dsp/index.js";
+import { noiseFloor, type WelchPsd } from "../dsp/index.js";
+import { bandLimitedRecord } from "./bandLimit.js";
 import { channelPower } from "./channelPower.js";
 import { mainLobeHalfWidthBins } from "./detectDcSpike.js";
 import { occupiedBandwidth } from "./occupiedBandwidth.js";
@@ -104,26 +105,14 @@ function strongestLineShare(psd: WelchPsd, lowerHz: number, upperHz: number, flo
   return line / total;
 }
 
-/** The record limited to [lowerHz, upperHz] by zeroing DFT bins (zero-padded to 2×), and the kept width. */
+/** The first MAX_SAMPLES of the record limited to [lowerHz, upperHz] (bandLimit.ts), and the kept width. */
 function bandLimited(
   iq: Float32Array | Float64Array, fs: number, lowerHz: number, upperHz: number,
 ): { iq: Float64Array; widthHz: number; lowerHz: number; upperHz: number } {
   const n = Math.min(iq.length / 2, MAX_SAMPLES);
-  if (lowerHz <= -fs / 2 && upperHz >= fs / 2) return { iq: Float64Array.from(iq.subarray(0, 2 * n)), widthHz: fs, lowerHz: -fs / 2, upperHz: fs / 2 };
-  let size = 2;
-  while (size < 2 * n) size *= 2;
-  const plan = fftPlan(size);
-  const a = plan.createBuffer();
-  const b = plan.createBuffer();
-  for (let k = 0; k < 2 * n; k++) a[k] = iq[k] as number;
-  plan.forward(b, a);
-  let kept = 0;
-  for (let k = 0; k < size; k++) {
-    const f = (k < size / 2 ? k : k - size) * (fs / size);
-    if (f < lowerHz || f > upperHz) { b[2 * k] = 0; b[2 * k + 1] = 0; } else kept++;
-  }
-  plan.inverse(a, b);
-  return { iq: Float64Array.from(a.slice(0, 2 * n)), widthHz: (kept * fs) / size, lowerHz, upperHz };
+  const full = lowerHz <= -fs / 2 && upperHz >= fs / 2;
+  const r = bandLimitedRecord(iq.subarray(0, 2 * n), fs, lowerHz, upperHz);
+  return full ? { ...r, lowerHz: -fs / 2, upperHz: fs / 2 } : { ...r, lowerHz, upperHz };
 }
 
 function envelopeAndFrequency(
