@@ -1,10 +1,9 @@
-import { buildAxis, drawAxes, positionPx, xAxisDepthPx, yAxisDepthPx } from "./axes.js";
 import { encodePng } from "./encodePng.js";
-import { checkFigureSize, drawTitleBlock, PAGE_STYLE, pagePaddingPx, textScaleFor } from "./figureFrame.js";
-import { textWidthPx } from "./font.js";
+import { checkFigureSize, drawTitleBlock, PAGE_STYLE, textScaleFor } from "./figureFrame.js";
 import { SERIES_COLOURS, type LineFigureAxisInput, type MarkerLine } from "./lineFigure.js";
 import { drawMarkerLines } from "./markerLines.js";
-import { RgbaCanvas, type Rect, type Rgb } from "./raster.js";
+import { drawPlotArea } from "./plotArea.js";
+import { RgbaCanvas, type Rgb } from "./raster.js";
 import type { FigureLayout } from "./spectrogramFigure.js";
 
 /** What a histogram figure shows: one bar per bin, from the y axis' zero (or its minimum) up to the count. */
@@ -103,32 +102,15 @@ export function renderHistogram(input: HistogramFigureInput): {
   const [yMin, yMax] = range(input.y, 0, yHi);
 
   const s = textScaleFor(widthPx, heightPx);
-  const pad = pagePaddingPx(s);
   const canvas = new RgbaCanvas(widthPx, heightPx, PAGE_STYLE.pageColour);
   const plotTop = drawTitleBlock(canvas, input.title, input.subtitle, s) + 10 * s;
-  const plotHeight = heightPx - pad - xAxisDepthPx(s) - plotTop;
-  const yAxis = buildAxis({ min: yMin, max: yMax, quantity: input.y.quantity, name: input.y.name, lengthPx: plotHeight, orientation: "vertical", textScale: s });
-  const plotLeft = pad + yAxisDepthPx(yAxis, s);
-  const xRequest = { min: xMin, max: xMax, quantity: input.x.quantity, name: input.x.name, orientation: "horizontal", textScale: s } as const;
-  // The last x label may stick out past the plot by half its width: leave room for it.
-  const draft = buildAxis({ ...xRequest, lengthPx: widthPx - plotLeft - pad });
-  const lastLabel = draft.ticks[draft.ticks.length - 1]?.label ?? "";
-  const plotWidth = widthPx - plotLeft - pad - Math.ceil(textWidthPx(lastLabel, s) / 2);
-  if (plotWidth < 64 || plotHeight < 64) throw new RangeError(`renderHistogram: ${widthPx} × ${heightPx} px leaves no room for the plot`);
-  const xAxis = buildAxis({ ...xRequest, lengthPx: plotWidth });
-  const plot: Rect = { x: plotLeft, y: plotTop, width: plotWidth, height: plotHeight };
-
-  drawAxes(canvas, plot, xAxis, yAxis, {
+  const { plot, xOf, yOf, px, py } = drawPlotArea(canvas, {
+    x: { name: input.x.name, quantity: input.x.quantity, min: xMin, max: xMax },
+    y: { name: input.y.name, quantity: input.y.quantity, min: yMin, max: yMax },
+    plotTop,
     textScale: s,
-    frameColour: PAGE_STYLE.frameColour,
-    textColour: PAGE_STYLE.inkColour,
-    gridColour: PAGE_STYLE.gridColour,
-    yMinAtTop: false,
+    figure: "renderHistogram",
   });
-  const xOf = (x: number): number => positionPx(x, xAxis, plot.x, plot.width, false);
-  const yOf = (y: number): number => positionPx(y, yAxis, plot.y, plot.height, true);
-  const px = (x: number): number => Math.min(plot.x + plot.width - 1, Math.floor(xOf(x)));
-  const py = (y: number): number => Math.min(plot.y + plot.height - 1, Math.floor(yOf(y)));
 
   canvas.setClip(plot);
   const colour = input.barColour ?? SERIES_COLOURS[0] ?? PAGE_STYLE.inkColour;

@@ -1,8 +1,9 @@
-import { buildAxis, drawAxes, positionPx, xAxisDepthPx, yAxisDepthPx, type AxisQuantity } from "./axes.js";
+import type { AxisQuantity } from "./axes.js";
 import { encodePng } from "./encodePng.js";
 import { checkFigureSize, drawTitleBlock, fitText, PAGE_STYLE, pagePaddingPx, textScaleFor } from "./figureFrame.js";
 import { textHeightPx, textWidthPx } from "./font.js";
-import { RgbaCanvas, type Rect, type Rgb } from "./raster.js";
+import { drawPlotArea } from "./plotArea.js";
+import { RgbaCanvas, type Rgb } from "./raster.js";
 import { drawMarkerLines } from "./markerLines.js";
 import type { FigureLayout } from "./spectrogramFigure.js";
 
@@ -147,30 +148,13 @@ export function renderLineFigure(input: LineFigureInput): {
   if (input.series.length > 0) top += lineH;
 
   const plotTop = top + 8 * s;
-  const plotHeight = heightPx - pad - xAxisDepthPx(s) - plotTop;
-  const yAxis = buildAxis({ min: yMin, max: yMax, quantity: input.y.quantity, name: input.y.name, lengthPx: plotHeight, orientation: "vertical", textScale: s });
-  const plotLeft = pad + yAxisDepthPx(yAxis, s);
-  const xRequest = { min: xMin, max: xMax, quantity: input.x.quantity, name: input.x.name, orientation: "horizontal", textScale: s } as const;
-  // The last x label may stick out past the plot by half its width: leave room for it.
-  const draft = buildAxis({ ...xRequest, lengthPx: widthPx - plotLeft - pad });
-  const lastLabel = draft.ticks[draft.ticks.length - 1]?.label ?? "";
-  const plotWidth = widthPx - plotLeft - pad - Math.ceil(textWidthPx(lastLabel, s) / 2);
-  if (plotWidth < 64 || plotHeight < 64) throw new RangeError(`renderLineFigure: ${widthPx} × ${heightPx} px leaves no room for the plot`);
-  const xAxis = buildAxis({ ...xRequest, lengthPx: plotWidth });
-  const plot: Rect = { x: plotLeft, y: plotTop, width: plotWidth, height: plotHeight };
-
-  drawAxes(canvas, plot, xAxis, yAxis, {
+  const { plot, xOf, yOf, px, py } = drawPlotArea(canvas, {
+    x: { name: input.x.name, quantity: input.x.quantity, min: xMin, max: xMax },
+    y: { name: input.y.name, quantity: input.y.quantity, min: yMin, max: yMax },
+    plotTop,
     textScale: s,
-    frameColour: PAGE_STYLE.frameColour,
-    textColour: PAGE_STYLE.inkColour,
-    gridColour: PAGE_STYLE.gridColour,
-    yMinAtTop: false,
+    figure: "renderLineFigure",
   });
-  const xOf = (x: number): number => positionPx(x, xAxis, plot.x, plot.width, false);
-  const yOf = (y: number): number => positionPx(y, yAxis, plot.y, plot.height, true);
-  // Pixel under a continuous coordinate, the last pixel for the far edge itself.
-  const px = (x: number): number => Math.min(plot.x + plot.width - 1, Math.floor(xOf(x)));
-  const py = (y: number): number => Math.min(plot.y + plot.height - 1, Math.floor(yOf(y)));
 
   canvas.setClip(plot);
   input.series.forEach((series, i) => {
