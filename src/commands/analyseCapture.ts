@@ -2,7 +2,7 @@
  * The first steps every analysing command shares: open the capture with the user's options,
  * resolve the span to analyse, and run pass 1 over it.
  */
-import { openCapture, resolveSpan, type CaptureMeta, type CaptureOptions, type SampleSpan } from "../capture/index.js";
+import { openCapture, resolveSpan, type CaptureMeta, type CaptureOptions, type CaptureSource, type SampleSpan } from "../capture/index.js";
 import { runPass1, type Pass1Options, type Pass1Result } from "../analysis/index.js";
 
 /** Capture options of the contract, already parsed into numbers. */
@@ -20,19 +20,33 @@ export interface AnalysedCapture {
 }
 
 export async function analyseCapture(path: string, args: CaptureArgs, pass1: Pass1Options = {}): Promise<AnalysedCapture> {
+  return withAnalysedCapture(path, args, pass1, async (a) => a);
+}
+
+/**
+ * Opens the capture, runs pass 1 over the span, and hands the result and the still-open source
+ * to `use` (for a pass 2); the source is closed afterwards, whatever happens.
+ */
+export async function withAnalysedCapture<T>(
+  path: string,
+  args: CaptureArgs,
+  pass1: Pass1Options,
+  use: (a: AnalysedCapture, source: CaptureSource) => Promise<T>,
+): Promise<T> {
   const source = await openCapture(path, args);
   try {
     const meta = source.meta;
     const { span, warnings: spanWarnings } = resolveSpan(meta, args.startS, args.durationS);
     const result = await runPass1(meta, span, pass1);
-    return { meta, span, pass1: result, warnings: [...meta.warnings, ...spanWarnings, ...result.warnings, ...healthWarnings(result)] };
+    const warnings = [...meta.warnings, ...spanWarnings, ...result.warnings, ...healthWarnings(result)];
+    return await use({ meta, span, pass1: result, warnings }, source);
   } finally {
     await source.close();
   }
 }
 
 /** Health findings a user must not miss, as warnings beside the figures. */
-export function healthWarnings(result: Pass1Result): string[] {
+function healthWarnings(result: Pass1Result): string[] {
   const h = result.health;
   const out: string[] = [];
   if (h.nonFiniteSamples > 0) {

@@ -4,12 +4,10 @@
  * figures with their uncertainty and method, and a report folder (report.json, report.md, PNGs).
  */
 import { basename, join } from "node:path";
-import { openCapture, resolveSpan } from "../capture/index.js";
-import { runPass1, type Pass1Options } from "../analysis/index.js";
+import type { Pass1Options } from "../analysis/index.js";
 import { measureEmission, type MeasureEmissionOptions } from "../analysis/measureEmission.js";
 import type { EmissionFigures } from "../analysis/emissionFigures.js";
-import type { CaptureArgs, AnalysedCapture } from "./analyseCapture.js";
-import { healthWarnings } from "./analyseCapture.js";
+import { withAnalysedCapture, type AnalysedCapture, type CaptureArgs } from "./analyseCapture.js";
 import { buildMeasureReport, type MeasureReport } from "../report/measureReport.js";
 import { measureMarkdown } from "../report/measureMarkdown.js";
 import { constellationFigure, frequencyHistogramFigure, spectrumFigure, traceFigure } from "../report/measureFigures.js";
@@ -31,19 +29,12 @@ export interface MeasureResult {
 }
 
 export async function measureCommand(path: string, options: MeasureOptions): Promise<MeasureResult> {
-  const source = await openCapture(path, options.capture);
-  try {
-    const meta = source.meta;
-    const { span, warnings: spanWarnings } = resolveSpan(meta, options.capture.startS, options.capture.durationS);
-    const pass1 = await runPass1(meta, span, options.pass1 ?? {});
-    const figures = await measureEmission(source, span, pass1, options);
-    const warnings = [...meta.warnings, ...spanWarnings, ...pass1.warnings, ...healthWarnings(pass1)];
-    const report = buildMeasureReport(meta, span, pass1, figures, warnings);
-    const files = options.outDir === undefined ? [] : await writeReportFolder(options.outDir, { meta, span, pass1, warnings }, figures, report);
+  return withAnalysedCapture(path, options.capture, options.pass1 ?? {}, async (a, source) => {
+    const figures = await measureEmission(source, a.span, a.pass1, options);
+    const report = buildMeasureReport(a.meta, a.span, a.pass1, figures, a.warnings);
+    const files = options.outDir === undefined ? [] : await writeReportFolder(options.outDir, a, figures, report);
     return { report, files };
-  } finally {
-    await source.close();
-  }
+  });
 }
 
 /** Figures first, then report.md, then report.json: a folder with report.json in it is complete. */
