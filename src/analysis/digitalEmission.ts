@@ -14,6 +14,7 @@ import {
   recoverSymbols,
   symbolRateBlind,
   type Measurement,
+  type Segments,
 } from "../measure/index.js";
 import type { DigitalFiguresOut, FskFiguresOut, OokFiguresOut } from "./emissionFigures.js";
 
@@ -21,6 +22,8 @@ export interface DigitalHints {
   readonly order?: number | undefined;
   readonly symbolRateBd?: number | undefined;
   readonly rollOff?: number | undefined;
+  /** The bursts of a bursty link joined in `iq` (FSK: each burst keeps its own symbol clock). */
+  readonly segments?: Segments | undefined;
 }
 
 export interface DigitalResult {
@@ -74,7 +77,11 @@ export function digitalEmission(
   const none = (unit: string, what: string, why: string): Measurement => notAvailable(unit, what, why);
   if (cls === "fsk") {
     const fskOrder = order === 4 ? 4 : 2;
-    const f = fskFigures(iq, sampleRateHz, { order: fskOrder, ...(hints.symbolRateBd === undefined ? {} : { symbolRateBd: hints.symbolRateBd }) });
+    const f = fskFigures(iq, sampleRateHz, {
+      order: fskOrder,
+      ...(hints.symbolRateBd === undefined ? {} : { symbolRateBd: hints.symbolRateBd }),
+      ...(hints.segments === undefined ? {} : { segments: hints.segments }),
+    });
     const tones = f.toneFrequenciesHz.map((t) => t.value).filter((v): v is number => v !== null);
     const centre = tones.length > 0 ? tones.reduce((a, b) => a + b, 0) / tones.length : null;
     const rate = f.symbolRateBd.value;

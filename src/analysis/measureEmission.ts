@@ -27,8 +27,8 @@ import {
   toneFrequency,
   xDbBandwidth,
   classifyEmission,
-  burstSamples,
-  fskFigures,
+  type Bursts,
+  type Segments,
   type DesignatorClass,
   type Measurement,
 } from "../measure/index.js";
@@ -37,6 +37,7 @@ import { runPass2 } from "./pass2.js";
 import { correctedOffsetHz } from "./clockCorrection.js";
 import type { AmFiguresOut, DigitalFiguresOut, EmissionFigures, FmFiguresOut, FskFiguresOut, OokFiguresOut } from "./emissionFigures.js";
 import { digitalEmission } from "./digitalEmission.js";
+import { keyedBursts, keyedDecision, type KeyedDecision } from "./keyedEmission.js";
 
 /** Classes `--mode` can force. */
 export const MEASURE_MODES = ["cw", "am", "fm", "fsk", "ook", "psk", "qam"] as const;
@@ -117,26 +118,19 @@ export async function measureEmission(
   let confidence = decided.confidence;
   let classMethod = decided.method;
   let iq = pass2.iq;
-  // A bursty link first looks like on-off keying: look inside its bursts before deciding.
-  if (cls === "ook" && options.mode === undefined) {
-    const bursts = burstSamples(pass2.iq, fsc);
-    const burstPsd = bursts.iq.length / 2 >= 4096 ? channelPsd(bursts.iq, fsc, widthHz) : null;
-    if (burstPsd !== null) {
-      const inner = classifyEmission(bursts.iq, fsc, burstPsd, { snrDb: pw.snrDb.value, analog: classifyAnalog(analogFeatures(bursts.iq, fsc, burstPsd, { noiseFloorPerHz: floor, lowerHz: -half, upperHz: half })), noiseFloorPerHz: floor });
-      // Short bursts joined end to end are too little for the cumulant and histogram tests of
-      // classifyEmission alone: a constant envelope with a moving frequency inside the bursts
-      // (the analog "fm" decision) whose frequency histogram gives two tones at a plausible index
-      // is taken as FSK.
-      const asFsk = inner.class === "fm" ? fskFigures(bursts.iq, fsc, { order: 2 }) : null;
-      const h = asFsk?.modulationIndex.value ?? null;
-      const innerClass = inner.class === "fm" && h !== null && h >= 0.2 && h <= 5 ? "fsk" : inner.class;
-      if ((innerClass === "fsk" || innerClass === "psk" || innerClass === "qam") && inner.confidence >= 0.6) {
-        cls = innerClass;
-        order = options.order ?? (innerClass === "fsk" && inner.class === "fm" ? 2 : inner.order);
-        confidence = innerClass === inner.class ? inner.confidence : Math.min(inner.confidence, 0.7);
-        classMethod = `${inner.method}; decided inside ${bursts.burstCount} bursts (on ${bursts.dutyCyclePercent.toFixed(1)} % of the time)`;
-        iq = bursts.iq;
-        warnings.push(`the emission is keyed in bursts (on ${bursts.dutyCyclePercent.toFixed(1)} % of the time); its modulation was measured inside the bursts`);
+  // A keyed envelope (a bursty link, or on-off keying) is decided by what is inside its bursts.
+  let segments: Segments | undefined;
+  const keyed = keyedBursts(pass2.iq, fsc);
+  if (keyed !== null) {
+    const inner = keyedFigures(keyed, options.mode, fsc, (x) => channelPsd(x, fsc, widthHz), floor, pw.snrDb.value, half);
+    if (inner !== null) {
+      cls = inner.class;
+      order = options.order ?? inner.order;
+      if (options.mode === undefined) { confidence = inner.confidence; classMethod = inner.method; }
+      if (inner.bursts !== null) {
+        iq = inner.bursts.iq;
+        segments = inner.bursts.segments;
+        warnings.push(`the emission is keyed in ${inner.bursts.burstCount} bursts (on ${inner.bursts.dutyCyclePercent.toFixed(1)} % of the time); its modulation was measured inside the bursts`);
       }
     }
   }
@@ -207,7 +201,7 @@ export async function measureEmission(
       }
     }
   } else if (cls === "psk" || cls === "qam" || cls === "fsk" || cls === "ook") {
-    const d = digitalEmission(iq, fsc, cls, order, obw.occupiedHz.value, options);
+    const d = digitalEmission(iq, fsc, cls, order, obw.occupiedHz.value, { ...options, segments });
     digital = d.digital;
     fsk = d.fsk;
     ook = d.ook;
@@ -279,6 +273,19 @@ export async function measureEmission(
     noiseFloorDbfsPerHz: pass1.noiseFloor.dbfsPerHz,
     warnings,
   };
+}
+
+/**
+ * The class inside the bursts of a keyed envelope (keyedEmission.ts): blind, or for a forced
+ * FSK/PSK/QAM mode just the bursts to measure in (other modes measure the whole record).
+ */
+function keyedFigures(
+  keyed: Bursts, mode: MeasureMode | undefined, fs: number, psdOf: (iq: Float32Array) => WelchPsd | null,
+  floor: number, snrDb: number | null, half: number,
+): KeyedDecision | null {
+  if (mode === undefined) return keyedDecision(keyed, fs, psdOf, floor, snrDb, half);
+  if (mode !== "fsk" && mode !== "psk" && mode !== "qam") return null;
+  return { class: mode, order: null, confidence: 1, method: "given with --mode", bursts: keyed };
 }
 
 function checkOptions(options: MeasureEmissionOptions, meta: CaptureMeta): void {

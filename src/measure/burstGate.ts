@@ -12,6 +12,10 @@ export interface Bursts {
   /** Share of the record on, %. */
   readonly dutyCyclePercent: number;
   readonly burstCount: number;
+  /** Where each burst lies in `iq` (sample indices, end exclusive), in order. */
+  readonly segments: readonly (readonly [number, number])[];
+  /** Mean smoothed envelope on over off, dB (20·log10 of the two Otsu classes' means). */
+  readonly onOffDb: number;
 }
 
 /**
@@ -25,7 +29,7 @@ export function burstSamples(iq: Float32Array, sampleRateHz: number, smoothingS 
   for (let k = 0; k < n; k++) envelope[k] = Math.hypot(iq[2 * k] as number, iq[2 * k + 1] as number);
   const len = Math.max(1, Math.round(smoothingS * sampleRateHz));
   const smooth = movingAverage(envelope, len);
-  const { threshold } = envelopeSplit(smooth);
+  const { threshold, lowMean, highMean } = envelopeSplit(smooth);
   const keep: [number, number][] = [];
   let on = 0;
   for (let k = 0; k < n; ) {
@@ -38,10 +42,13 @@ export function burstSamples(iq: Float32Array, sampleRateHz: number, smoothingS 
   }
   const total = keep.reduce((a, [s, e]) => a + (e - s), 0);
   const out = new Float32Array(2 * total);
+  const segments: [number, number][] = [];
   let o = 0;
   for (const [s, e] of keep) {
     out.set(iq.subarray(2 * s, 2 * e), o);
+    segments.push([o / 2, o / 2 + (e - s)]);
     o += 2 * (e - s);
   }
-  return { iq: out, dutyCyclePercent: (100 * on) / Math.max(n, 1), burstCount: keep.length };
+  const onOffDb = 20 * Math.log10(Math.max(highMean, 1e-30) / Math.max(lowMean, 1e-30));
+  return { iq: out, dutyCyclePercent: (100 * on) / Math.max(n, 1), burstCount: keep.length, segments, onOffDb };
 }

@@ -22,6 +22,7 @@ import { fundamentalRate, symbolFrequencies } from "./digitalFeatures.js";
 import { instantaneousFrequencyHz } from "./fmDiscriminator.js";
 import { levelClusters, type LevelClusters } from "./levelClusters.js";
 import { measurement, notAvailable, type Measurement } from "./measurement.js";
+import { transitionTiming, type Segments } from "./transitionTiming.js";
 
 /** Options of fskFigures. */
 export interface FskFiguresOptions {
@@ -29,6 +30,12 @@ export interface FskFiguresOptions {
   readonly order?: 2 | 4;
   /** Known symbol rate, Bd; measured when absent. */
   readonly symbolRateBd?: number;
+  /**
+   * The bursts of a bursty link joined end to end in `iq`: sample ranges, each with its own
+   * symbol clock. When given, the rate and timing come from the level transitions of each burst
+   * (transitionTiming.ts) and only samples inside the bursts count.
+   */
+  readonly segments?: Segments;
 }
 
 /** Histogram of the instantaneous frequency: bin centres (Hz) and counts. */
@@ -45,6 +52,8 @@ export interface FskFigures {
   readonly symbolRateBd: Measurement<"Bd">;
   readonly modulationIndex: Measurement<"">;
   readonly histogram: FrequencyHistogram;
+  /** Smallest gap between adjacent tone clusters over their pooled σ, or null without tones. */
+  readonly clusterSeparation: number | null;
 }
 
 /** Defaults of fskFigures. */
@@ -57,26 +66,35 @@ export function fskFigures(iq: Float32Array | Float64Array, sampleRateHz: number
   const order = options.order ?? FSK_FIGURES_DEFAULTS.order;
   if (order !== 2 && order !== 4) throw new RangeError(`order ${String(order)} must be 2 or 4`);
   if (options.symbolRateBd !== undefined && !(options.symbolRateBd > 0)) throw new RangeError(`symbolRateBd ${options.symbolRateBd} is not a positive rate`);
+  if (options.segments !== undefined) return segmentedFsk(iq, sampleRateHz, order, options.segments, options.symbolRateBd);
   const fs = sampleRateHz;
   const [lo, hi] = bandOf(iq, fs);
   const band = bandLimit(iq, fs, lo, hi);
   const histogram = histogramOf(instantaneousFrequencyHz(band, fs), FSK_FIGURES_DEFAULTS.histogramBins);
-  const rateMethod = "symbol rate: line of the frequency-transition feature (symbolRateBlind)";
   const rate = options.symbolRateBd !== undefined
     ? measurement(options.symbolRateBd, "Bd", null, "symbol rate given by the caller")
     : fundamentalRate(band, fs, "frequency", fs / 1000, fs / 2);
-  const method = `${order}-level clustering of per-symbol mean instantaneous frequency (integrate-and-dump, Lloyd 1982)`;
-  const missing = (why: string): FskFigures => ({
-    toneFrequenciesHz: [], shiftHz: notAvailable("Hz", method, why), symbolRateBd: rate.value === null ? rate : measurement(rate.value, "Bd", rate.uncertainty, rate.method || rateMethod),
-    modulationIndex: notAvailable("", method, why), histogram,
-  });
-  if (rate.value === null) return missing(rate.warnings[0] ?? "no symbol rate");
+  if (rate.value === null) return missingFigures(order, rate, histogram, rate.warnings[0] ?? "no symbol rate");
   // For the tones, widen the band by 1.5·Rs each side so the keying's sidebands pass.
   const centre = (lo + hi) / 2;
   const half = (hi - lo) / 2 + 1.5 * rate.value;
   const freq = instantaneousFrequencyHz(bandLimit(iq, fs, centre - half, centre + half), fs);
-  const v = symbolFrequencies(freq, fs, rate.value);
-  if (v.length < 8 * order) return missing(`${v.length} symbols are too few for ${order} tones`);
+  return figuresFromSymbols(symbolFrequencies(freq, fs, rate.value), order, rate, histogram, "");
+}
+
+const clusterMethod = (order: number): string =>
+  `${order}-level clustering of per-symbol mean instantaneous frequency (integrate-and-dump, Lloyd 1982)`;
+
+function missingFigures(order: number, rate: Measurement<"Bd">, histogram: FrequencyHistogram, why: string): FskFigures {
+  const method = clusterMethod(order);
+  return { toneFrequenciesHz: [], shiftHz: notAvailable("Hz", method, why), symbolRateBd: rate, modulationIndex: notAvailable("", method, why), histogram, clusterSeparation: null };
+}
+
+/** Tones, shift and index from the per-symbol mean frequencies `v` (module comment). */
+function figuresFromSymbols(v: Float64Array, order: 2 | 4, rate: Measurement<"Bd">, histogram: FrequencyHistogram, where: string): FskFigures {
+  const method = clusterMethod(order);
+  const rs = rate.value as number;
+  if (v.length < 8 * order) return missingFigures(order, rate, histogram, `${v.length} symbols${where} are too few for ${order} tones`);
   const c = runCentres(v, levelClusters(v, order));
   const tones = c.centres.map((f, i) => measurement(f, "Hz", (2 * c.spread) / Math.sqrt(Math.max(1, c.counts[i] as number)), method));
   const first = c.centres[0] as number;
@@ -86,14 +104,69 @@ export function fskFigures(iq: Float32Array | Float64Array, sampleRateHz: number
   const u1 = tones[order - 1]?.uncertainty ?? 0;
   const shiftU = Math.hypot(u0, u1) / (order - 1);
   const warnings = c.separation < 6 ? [`tone clusters overlap (separation ${c.separation.toFixed(1)} σ); shift and index are doubtful`] : [];
-  const shiftM = measurement(shift, "Hz", shiftU, `${method}; ${order === 2 ? "f1 − f0" : "mean tone spacing"}, ${v.length} symbols, cluster separation ${powerToDb(c.separation ** 2).toFixed(1)} dB`, warnings);
+  const shiftM = measurement(shift, "Hz", shiftU, `${method}; ${order === 2 ? "f1 − f0" : "mean tone spacing"}, ${v.length} symbols${where}, cluster separation ${powerToDb(c.separation ** 2).toFixed(1)} dB`, warnings);
   const ru = rate.uncertainty ?? 0;
-  const h = shift / rate.value;
-  const hU = Math.abs(h) * Math.hypot(shiftU / shift, ru / rate.value);
+  const h = shift / rs;
+  const hU = Math.abs(h) * Math.hypot(shiftU / shift, ru / rs);
   return {
     toneFrequenciesHz: tones, shiftHz: shiftM, symbolRateBd: rate,
-    modulationIndex: measurement(h, "", hU, "h = shift / symbol rate", warnings), histogram,
+    modulationIndex: measurement(h, "", hU, "h = shift / symbol rate", warnings), histogram, clusterSeparation: c.separation,
   };
+}
+
+/**
+ * FSK figures of bursts joined end to end (options.segments): the samples inside the bursts
+ * only, the symbol clock of each burst from its own level transitions.
+ */
+function segmentedFsk(iq: Float32Array | Float64Array, fs: number, order: 2 | 4, segments: Segments, givenBd: number | undefined): FskFigures {
+  const [lo, hi] = bandOf(iq, fs);
+  const narrow = instantaneousFrequencyHz(bandLimit(iq, fs, lo, hi), fs);
+  // Trim the smear of the band-limiting filter at the joins: a few periods of the band edge.
+  const guard = Math.ceil((4 * fs) / (hi - lo));
+  const inner = segments.map(([a, b]) => [a + guard, b - guard] as const).filter(([a, b]) => b - a > 2 * guard);
+  const inside = samplesIn(narrow, inner);
+  const histogram = histogramOf(inside, FSK_FIGURES_DEFAULTS.histogramBins);
+  const levels = levelClusters(inside, order).centres;
+  const where = ` in ${inner.length} bursts`;
+  if (levels.length < order) return missingFigures(order, notAvailable("Bd", "symbol rate", "too few samples in the bursts"), histogram, `too few samples${where}`);
+  const timing = givenBd === undefined
+    ? transitionTiming(narrow, fs, levels, inner, fs / 1000, fs / 2)
+    : transitionTiming(narrow, fs, levels, inner, 0.97 * givenBd, 1.03 * givenBd);
+  const rate = givenBd === undefined ? timing.rateBd : measurement(givenBd, "Bd", null, "symbol rate given by the caller");
+  if (rate.value === null) return missingFigures(order, rate, histogram, rate.warnings[0] ?? "no symbol rate");
+  const centre = (lo + hi) / 2;
+  const half = (hi - lo) / 2 + 1.5 * rate.value;
+  const wide = instantaneousFrequencyHz(bandLimit(iq, fs, centre - half, centre + half), fs);
+  return figuresFromSymbols(symbolMeans(wide, fs / rate.value, inner, timing.boundaries), order, rate, histogram, where);
+}
+
+/** The values of x inside the ranges, joined. */
+function samplesIn(x: Float32Array, ranges: Segments): Float32Array {
+  const total = ranges.reduce((s, [a, b]) => s + (b - a), 0);
+  const out = new Float32Array(total);
+  let o = 0;
+  for (const [a, b] of ranges) { out.set(x.subarray(a, b), o); o += b - a; }
+  return out;
+}
+
+/**
+ * Mean of x over the central 60 % of every whole symbol of each range, on that range's grid
+ * (boundary instant + k·period); ranges without a boundary are skipped.
+ */
+function symbolMeans(x: Float32Array, period: number, ranges: Segments, boundaries: readonly (number | null)[]): Float64Array {
+  const out: number[] = [];
+  ranges.forEach(([a, b], r) => {
+    const t0 = boundaries[r];
+    if (t0 === null || t0 === undefined) return;
+    for (let k = Math.ceil((a - t0) / period); t0 + (k + 1) * period <= b; k++) {
+      const s = Math.round(t0 + (k + 0.2) * period);
+      const e = Math.round(t0 + (k + 0.8) * period);
+      let sum = 0;
+      for (let i = s; i < e; i++) sum += x[i] as number;
+      if (e > s) out.push(sum / (e - s));
+    }
+  });
+  return Float64Array.from(out);
 }
 
 /** 1.2 × the 2 %…98 % quantile span of the raw instantaneous frequency (first 2^16 samples). */

@@ -8,7 +8,7 @@ import { PNG } from "pngjs";
 import { describe, expect, it } from "vitest";
 import { encodeSamples } from "../../src/capture/index.js";
 import { measureCommand } from "../../src/commands/measure.js";
-import { SeededRandom, amFromAudio, complexNoise, fmFromAudio, frequencyShift, nrzLevels, randomSymbols, rrcPsk, toneAudio } from "../../src/scenario/index.js";
+import { SeededRandom, amFromAudio, burstGate, complexNoise, fmFromAudio, frequencyShift, nrzLevels, randomSymbols, rrcPsk, toneAudio } from "../../src/scenario/index.js";
 import { runCli } from "../helpers/runCli.js";
 
 const dir = mkdtempSync(join(tmpdir(), "iqaudit-measure-"));
@@ -196,4 +196,48 @@ describe("measureCommand on digital emissions", () => {
     expect(Math.abs((report.fsk.modulationIndex as number) - shift / rb) / (shift / rb)).toBeLessThan(0.01);
     expect(report.emission.designator).toMatch(/F1D$/);
   });
+
+  /**
+   * A bursty 2-FSK link: 4800 Bd, 3600 Hz shift, 10 ms bursts every 125 ms (8 % duty) with
+   * 0.2 ms raised-cosine edges, each burst starting its symbol clock afresh at a fractional
+   * sample, at −30 kHz + 137 Hz. The truth is the keying it was made from (closed form).
+   */
+  function burstyFskCapture(): string {
+    const rb = 4800;
+    const schedule = { periodS: 0.125, onS: 0.01, firstStartS: 0.0173, rampS: 0.0002 };
+    const rng = new SeededRandom(77);
+    const levels = new Float64Array(n);
+    for (let k = 0; ; k++) {
+      const t0 = schedule.firstStartS + k * schedule.periodS - 0.001;
+      if (t0 * fs >= n) break;
+      const bits = Array.from({ length: 60 }, () => rng.integer(2));
+      const start = Math.floor(t0 * fs);
+      const run = nrzLevels(bits, rb, fs, start, Math.min(n - start, Math.ceil(0.0125 * fs)), t0);
+      levels.set(run.subarray(0, Math.min(run.length, n - start)), start);
+    }
+    const { iq } = fmFromAudio(levels, fs, 1800, 0, 0.3);
+    const gate = burstGate(0, n, fs, schedule);
+    for (let k = 0; k < n; k++) { iq[2 * k] = (iq[2 * k] as number) * (gate[k] as number); iq[2 * k + 1] = (iq[2 * k + 1] as number) * (gate[k] as number); }
+    const p = join(dir, "burstyfsk_250ksps.cf32");
+    writeFileSync(p, encodeSamples("cf32_le", withNoise(frequencyShift(iq, fs, -30_000 + 137), 1e-6, 8)));
+    return p;
+  }
+
+  it("measures a bursty 2-FSK link inside its bursts: class, rate, shift and centre (closed form of the keying)", async () => {
+    const p = burstyFskCapture();
+    for (const channel of [undefined, { offsetHz: -30_000, widthHz: 25_000 }]) {
+      const { report } = await measureCommand(p, { capture: {}, channel });
+      expect(report.modulation.class, JSON.stringify(channel)).toBe("fsk");
+      expect(report.modulation.order).toBe(2);
+      const rate = report.digital.symbolRateBd as number;
+      const uRate = report.uncertainty["digital.symbolRateBd"] as number;
+      // Stated k = 2 uncertainty covers the true rate; and within 0.5 % (common practice for a data link's rate).
+      expect(Math.abs(rate - 4800)).toBeLessThanOrEqual(Math.max(uRate, 1));
+      expect(Math.abs(rate - 4800) / 4800).toBeLessThan(0.005);
+      expect(Math.abs((report.fsk.shiftHz as number) - 3600) / 3600).toBeLessThan(0.01);
+      // Centre of the two tones = the carrier; within 20 Hz (0.5 % of the shift).
+      expect(Math.abs((report.carrier.offsetHz as number) - (-30_000 + 137))).toBeLessThan(20);
+      expect(report.warnings.join(" ")).toMatch(/bursts/);
+    }
+  }, 60_000);
 });
