@@ -112,7 +112,7 @@ export function digitalEmission(
       ook: { onOffRatioDb: o.onOffRatioDb, dutyCyclePercent: o.dutyCyclePercent, onLevelDbfs: o.onLevelDbfs },
       carrierHz: null,
       order: 2,
-      necessaryBandwidthHz: null,
+      necessaryBandwidthHz: ookNecessary(o.symbolRateBd),
       warnings,
     };
   }
@@ -173,4 +173,14 @@ export function digitalEmission(
       recovered: null,
     };
   }
+}
+
+/**
+ * On-off keying: Bn = B·K with K = 5 (47 CFR 2.202(g) / ITU-R SM.1138 A1A telegraphy, K = 5 for
+ * a fading circuit; REFERENCES.md §2), B the measured keying rate in Bd.
+ */
+function ookNecessary(rate: Measurement): Measurement | null {
+  const b = rate.value;
+  if (b === null) return null;
+  return measurement(5 * b, "Hz", rate.uncertainty === null ? null : 5 * rate.uncertainty, `47 CFR 2.202(g) A1A: B·K, K = 5, with the measured B = ${b.toFixed(1)} Bd`);
 }

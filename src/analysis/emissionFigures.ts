@@ -116,6 +116,8 @@ export interface EmissionFigures {
   readonly ook: OokFiguresOut | null;
   readonly emission: {
     readonly designator: string | null;
+    /** Where the designator's bandwidth came from (interface.md `emission.designatorBasis`), null without one. */
+    readonly designatorBasis: "necessary" | "occupied" | null;
     readonly necessaryBandwidthHz: Measurement;
     readonly method: string;
   };

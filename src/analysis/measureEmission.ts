@@ -168,15 +168,17 @@ export async function measureEmission(
       audioBandwidthHz: f.audioBandwidthHz,
       trace: { timeS: shiftTimes(f.trace.timeS, pass2.startS), min: f.trace.minHz, max: f.trace.maxHz },
     };
-    const d = f.peakDeviationHz.value;
-    if (d !== null && fmod !== null) {
-      necessary = measurement(
-        necessaryBandwidthFmHz(fmod, d),
-        "Hz",
-        null,
-        `47 CFR 2.202(g) F3E: 2M + 2DK, K = 1, with the measured M = ${fmod.toFixed(0)} Hz (dominant modulating frequency) and D = ${d.toFixed(0)} Hz`,
-      );
+    const tone = singleTone(f.modulatingToneShare, fmod);
+    if (tone === null) {
+      const d = f.peakDeviationHz;
+      const carsonMethod = `Carson's rule B = 2(Δf + M) with M = ${audioBandwidthHz.toFixed(0)} Hz, the audio bandwidth (the audio is not one tone)`;
+      fm = {
+        ...fm,
+        modulationIndex: notAvailable("", f.modulationIndex.method, "the audio is not one tone (speech or several tones): a modulation index applies to one tone only"),
+        carsonBandwidthHz: d.value === null ? notAvailable("Hz", carsonMethod, "no peak deviation") : measurement(2 * (d.value + audioBandwidthHz), "Hz", d.uncertainty === null ? null : 2 * d.uncertainty, carsonMethod),
+      };
     }
+    necessary = necessaryFm(f.peakDeviationHz, tone === null ? null : f.modulatingFrequencyHz, audioBandwidthHz);
   } else if (cls === "cw" || cls === "am") {
     carrier = toneFrequency(iq, fsc);
     if (cls === "am") {
@@ -195,10 +197,8 @@ export async function measureEmission(
           max: Array.from(a.trace.maxFs, (v) => (v / vc - 1) * 100),
         },
       };
-      const m = a.modulatingFrequencyHz.value;
-      if (m !== null) {
-        necessary = measurement(necessaryBandwidthAmHz(m), "Hz", null, `47 CFR 2.202(g) A3E: 2M with the measured M = ${m.toFixed(0)} Hz`);
-      }
+      const tone = singleTone(a.modulatingToneShare, a.modulatingFrequencyHz.value);
+      necessary = necessaryAm(tone === null ? null : a.modulatingFrequencyHz, audioBandwidthHz);
     }
   } else if (cls === "psk" || cls === "qam" || cls === "fsk" || cls === "ook") {
     const d = digitalEmission(iq, fsc, cls, order, obw.occupiedHz.value, { ...options, segments });
@@ -226,8 +226,10 @@ export async function measureEmission(
     nominalHz === null
       ? notAvailable("Ppm", "(measured − assigned)/assigned × 1e6", "no assigned frequency (give --nominal)")
       : frequencyErrorPpmOf(carrierRf as Measurement<"Hz">, nominalHz);
-  const designator = emissionDesignator({ class: cls, bandwidthHz: obw.occupiedHz.value });
-  if (designator.reason !== null) warnings.push(`no emission designator: ${designator.reason}`);
+  const basis = designatorBandwidth(necessary, obw.occupiedHz, psd.enbwHz);
+  const designator = emissionDesignator({ class: cls, bandwidthHz: basis.bandwidthHz });
+  const designatorReason = designator.reason === "no bandwidth to state" && basis.reason !== null ? basis.reason : designator.reason;
+  if (designatorReason !== null) warnings.push(`no emission designator: ${designatorReason}`);
 
   return {
     channel: {
@@ -266,13 +268,64 @@ export async function measureEmission(
     ook,
     emission: {
       designator: designator.designator,
+      designatorBasis: designator.designator === null ? null : basis.basis,
       necessaryBandwidthHz: necessary,
-      method: "ITU Radio Regulations Appendix 1: bandwidth code from the measured 99 % occupied bandwidth, symbols from the class",
+      method: `ITU Radio Regulations Appendix 1: ${basis.method}; symbols from the class`,
     },
     channelPsd: psd,
     noiseFloorDbfsPerHz: pass1.noiseFloor.dbfsPerHz,
     warnings,
   };
+}
+
+/**
+ * Audio whose dominant line holds at least this share of its power is one test tone (a
+ * sinusoid keeps > 99 % within its Hann main lobe; speech spreads over the band). Common practice.
+ */
+const SINGLE_TONE_SHARE = 0.8;
+
+function singleTone(share: number | null, hz: number | null): number | null {
+  return share !== null && hz !== null && share >= SINGLE_TONE_SHARE ? hz : null;
+}
+
+/**
+ * 47 CFR 2.202(g) F3E: Bn = 2M + 2DK, K = 1, M the maximum modulating frequency: the test tone
+ * when the audio is one tone, else the audio bandwidth (`--audio-bw`, 3 kHz for telephony).
+ */
+function necessaryFm(d: Measurement, tone: Measurement | null, audioBandwidthHz: number): Measurement {
+  if (d.value === null) return notAvailable("Hz", "47 CFR 2.202(g) F3E: 2M + 2DK", "no peak deviation");
+  const m = tone?.value ?? audioBandwidthHz;
+  const u = 2 * Math.hypot(d.uncertainty ?? 0, tone?.uncertainty ?? 0);
+  const what = tone === null ? `M = ${m.toFixed(0)} Hz, the audio bandwidth (--audio-bw)` : `M = ${m.toFixed(1)} Hz, the measured test tone`;
+  return measurement(necessaryBandwidthFmHz(m, d.value), "Hz", u > 0 ? u : null, `47 CFR 2.202(g) F3E: 2M + 2DK, K = 1, ${what}, D = ${d.value.toFixed(0)} Hz measured peak deviation`);
+}
+
+/** 47 CFR 2.202(g) A3E: Bn = 2M, M the test tone when the audio is one tone, else the audio bandwidth. */
+function necessaryAm(tone: Measurement | null, audioBandwidthHz: number): Measurement {
+  const m = tone?.value ?? audioBandwidthHz;
+  const what = tone === null ? `M = ${m.toFixed(0)} Hz, the audio bandwidth (--audio-bw)` : `M = ${m.toFixed(1)} Hz, the measured test tone`;
+  const u = tone === null ? null : 2 * (tone.uncertainty ?? 0);
+  return measurement(necessaryBandwidthAmHz(m), "Hz", u !== null && u > 0 ? u : null, `47 CFR 2.202(g) A3E: 2M, ${what}`);
+}
+
+/**
+ * The bandwidth of the designator: the necessary bandwidth where a 47 CFR 2.202 formula gave one
+ * (RR Appendix 1 designators carry the necessary bandwidth), else the 99 % occupied bandwidth
+ * (as 47 CFR 90.209(a) allows), but not when that is limited by the resolution (bin wider than
+ * 5 % of it): then it is only an upper bound, and no bandwidth digit is made from the window.
+ */
+function designatorBandwidth(
+  necessary: Measurement, occupied: Measurement, resolutionHz: number,
+): { bandwidthHz: number | null; basis: "necessary" | "occupied"; method: string; reason: string | null } {
+  if (necessary.value !== null && necessary.value > 0) {
+    return { bandwidthHz: necessary.value, basis: "necessary", method: "bandwidth code from the necessary bandwidth (47 CFR 2.202(g) formula with the measured parameters)", reason: null };
+  }
+  const obw = occupied.value;
+  const method = "bandwidth code from the measured 99 % occupied bandwidth (47 CFR 90.209(a)), no necessary-bandwidth formula applies";
+  if (obw !== null && resolutionHz > 0.05 * obw) {
+    return { bandwidthHz: null, basis: "occupied", method, reason: `the occupied bandwidth ${obw.toFixed(1)} Hz is an upper bound set by the ${resolutionHz.toFixed(2)} Hz resolution: no bandwidth code` };
+  }
+  return { bandwidthHz: obw, basis: "occupied", method, reason: null };
 }
 
 /**
@@ -391,7 +444,7 @@ function noEmission(
     digital: null,
     fsk: null,
     ook: null,
-    emission: { designator: null, necessaryBandwidthHz: none("Hz", "necessary bandwidth"), method: "no emission" },
+    emission: { designator: null, designatorBasis: null, necessaryBandwidthHz: none("Hz", "necessary bandwidth"), method: "no emission" },
     channelPsd: null,
     noiseFloorDbfsPerHz: pass1.noiseFloor.dbfsPerHz,
     warnings,

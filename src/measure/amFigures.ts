@@ -46,6 +46,8 @@ export interface AmFigures {
   /** Carrier level Vc = mean envelope, full scale 1.0. */
   readonly carrierAmplitudeFs: Measurement<"">;
   readonly modulatingFrequencyHz: Measurement<"Hz">;
+  /** Share of the audio power in the dominant line (audioLine.ts `lineShare`): near 1 for one test tone; null without audio. */
+  readonly modulatingToneShare: number | null;
   /** First sideband lines at fc ± fm relative to the carrier line, dBc. */
   readonly sidebandLevelsDbc: { readonly upper: Measurement<"Db">; readonly lower: Measurement<"Db"> };
   readonly audioBandwidthHz: number;
@@ -128,7 +130,7 @@ export function amFigures(iq: Float32Array, sampleRateHz: number, options: AmFig
   const trace = minMaxBuckets(filtered, first, end, sampleRateHz, 0);
   return {
     modulationDepthPercent: depthM, positiveDepthPercent: posM, negativeDepthPercent: negM,
-    carrierAmplitudeFs: carrierM, modulatingFrequencyHz: fmM, sidebandLevelsDbc: sidebands,
+    carrierAmplitudeFs: carrierM, modulatingFrequencyHz: fmM, modulatingToneShare: line.frequencyHz === null ? null : line.lineShare, sidebandLevelsDbc: sidebands,
     audioBandwidthHz: w, method, trace: { timeS: trace.timeS, minFs: trace.min, maxFs: trace.max },
   };
 }
@@ -170,7 +172,7 @@ function tooShort(reason: string, w: number, method: string[]): AmFigures {
   return {
     modulationDepthPercent: pct("depth"), positiveDepthPercent: pct("positive depth"),
     negativeDepthPercent: pct("negative depth"), carrierAmplitudeFs: notAvailable("", "carrier level", reason),
-    modulatingFrequencyHz: notAvailable("Hz", "modulating frequency", reason),
+    modulatingFrequencyHz: notAvailable("Hz", "modulating frequency", reason), modulatingToneShare: null,
     sidebandLevelsDbc: { upper: db, lower: db }, audioBandwidthHz: w, method,
     trace: { timeS: new Float64Array(0), minFs: new Float32Array(0), maxFs: new Float32Array(0) },
   };

@@ -19,6 +19,11 @@ export interface AudioLine {
   readonly binWidthHz: number;
   /** Peak bin over the median bin of the band, dB (how clearly the line stands out). */
   readonly prominenceDb: number;
+  /**
+   * Share of the band's power within ±3 bins of the peak (the Hann main lobe is ±2 bins): near 1
+   * for one tone, well below for speech or several tones. 0 when there is no line.
+   */
+  readonly lineShare: number;
 }
 
 /** Finest bin width asked for, Hz. */
@@ -28,7 +33,7 @@ const TARGET_BIN_WIDTH_HZ = 1;
 export function dominantLine(x: Float64Array, sampleRateHz: number, loHz: number, hiHz: number): AudioLine {
   let fftLength = 256;
   while (fftLength * 2 <= x.length && sampleRateHz / fftLength > TARGET_BIN_WIDTH_HZ) fftLength *= 2;
-  if (fftLength > x.length) return { frequencyHz: null, binWidthHz: sampleRateHz / fftLength, prominenceDb: 0 };
+  if (fftLength > x.length) return { frequencyHz: null, binWidthHz: sampleRateHz / fftLength, prominenceDb: 0, lineShare: 0 };
   let mean = 0;
   for (let i = 0; i < x.length; i++) mean += x[i] as number;
   mean /= x.length;
@@ -40,7 +45,7 @@ export function dominantLine(x: Float64Array, sampleRateHz: number, loHz: number
   const bin = psd.binWidthHz;
   const first = Math.max(1, Math.ceil(loHz / bin)) + fftLength / 2;
   const last = Math.min(fftLength / 2 - 2, Math.floor(hiHz / bin)) + fftLength / 2;
-  if (last < first) return { frequencyHz: null, binWidthHz: bin, prominenceDb: 0 };
+  if (last < first) return { frequencyHz: null, binWidthHz: bin, prominenceDb: 0, lineShare: 0 };
   const d = psd.densityPerHz;
   let best = first;
   const band: number[] = [];
@@ -51,10 +56,16 @@ export function dominantLine(x: Float64Array, sampleRateHz: number, loHz: number
   band.sort((a, b) => a - b);
   const median = band[band.length >> 1] as number;
   const peak = d[best] as number;
-  if (!(peak > 0)) return { frequencyHz: null, binWidthHz: bin, prominenceDb: 0 };
+  if (!(peak > 0)) return { frequencyHz: null, binWidthHz: bin, prominenceDb: 0, lineShare: 0 };
   const offset = parabolicPeakOffset(d[best - 1] as number, peak, d[best + 1] as number);
   const prominenceDb = median > 0 ? 10 * Math.log10(peak / median) : 300;
-  return { frequencyHz: binFrequencyHz(psd, best) + offset * bin, binWidthHz: bin, prominenceDb };
+  let inLine = 0;
+  let total = 0;
+  for (let i = first; i <= last; i++) {
+    total += d[i] as number;
+    if (Math.abs(i - best) <= 3) inLine += d[i] as number;
+  }
+  return { frequencyHz: binFrequencyHz(psd, best) + offset * bin, binWidthHz: bin, prominenceDb, lineShare: total > 0 ? inLine / total : 0 };
 }
 
 /**

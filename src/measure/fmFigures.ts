@@ -52,6 +52,8 @@ export interface FmFigures {
   /** Peak |deviation| before the audio low-pass (clicks included), for information. */
   readonly rawPeakDeviationHz: Measurement<"Hz">;
   readonly modulatingFrequencyHz: Measurement<"Hz">;
+  /** Share of the audio power in the dominant line (audioLine.ts `lineShare`): near 1 for one test tone; null without audio. */
+  readonly modulatingToneShare: number | null;
   /** Peak deviation / modulating frequency (dimensionless). */
   readonly modulationIndex: Measurement<"">;
   /** 2·(peak deviation + modulating frequency). */
@@ -158,7 +160,7 @@ export function fmFigures(iq: Float32Array, sampleRateHz: number, options: FmFig
   const trace = minMaxBuckets(a, first, end, sampleRateHz, 0.5);
   return {
     peakDeviationHz: peakM, positiveDeviationHz: posM, negativeDeviationHz: negM, rmsDeviationHz: rmsM,
-    rawPeakDeviationHz: rawM, modulatingFrequencyHz: fmM, modulationIndex: indexM, carsonBandwidthHz: carsonM,
+    rawPeakDeviationHz: rawM, modulatingFrequencyHz: fmM, modulatingToneShare: line.frequencyHz === null ? null : line.lineShare, modulationIndex: indexM, carsonBandwidthHz: carsonM,
     carrierOffsetHz: carrier, toneHz: tone.toneHz, toneDeviationHz: tone.toneDeviationHz,
     standardToneHz: tone.standardToneHz, audioBandwidthHz: w, method,
     trace: { timeS: trace.timeS, minHz: trace.min, maxHz: trace.max },
@@ -201,7 +203,7 @@ function tooShort(steps: number, skip: number, w: number, method: string[], carr
   return {
     peakDeviationHz: na("peak deviation"), positiveDeviationHz: na("positive deviation"),
     negativeDeviationHz: na("negative deviation"), rmsDeviationHz: na("RMS deviation"),
-    rawPeakDeviationHz: na("raw peak deviation"), modulatingFrequencyHz: na("modulating frequency"),
+    rawPeakDeviationHz: na("raw peak deviation"), modulatingFrequencyHz: na("modulating frequency"), modulatingToneShare: null,
     modulationIndex: notAvailable("", "modulation index", reason), carsonBandwidthHz: na("Carson bandwidth"),
     carrierOffsetHz: carrier, toneHz: na("sub-audible tone"), toneDeviationHz: na("sub-audible tone deviation"),
     standardToneHz: null, audioBandwidthHz: w, method,

@@ -43,7 +43,7 @@ export interface MeasureReport {
   };
   readonly fsk: { readonly shiftHz: N; readonly modulationIndex: N; readonly toneFrequenciesHz: readonly N[] | null };
   readonly ook: { readonly onOffRatioDb: N; readonly dutyCyclePercent: N; readonly onLevelDbfs: N };
-  readonly emission: { readonly designator: string | null; readonly necessaryBandwidthHz: N };
+  readonly emission: { readonly designator: string | null; readonly designatorBasis: "necessary" | "occupied" | null; readonly necessaryBandwidthHz: N };
   readonly uncertainty: Readonly<Record<string, number>>;
   readonly methods: Readonly<Record<string, string>>;
   /** Why a figure is null, keyed by its dotted path (a figure that does not apply is simply absent here). */
@@ -166,6 +166,7 @@ export function buildMeasureReport(
     },
     emission: {
       designator: f.emission.designator,
+      designatorBasis: f.emission.designatorBasis,
       necessaryBandwidthHz: l.take("emission.necessaryBandwidthHz", f.emission.necessaryBandwidthHz),
     },
     uncertainty: l.uncertainty,
