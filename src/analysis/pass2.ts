@@ -17,7 +17,7 @@ export interface Pass2Options {
   readonly bandwidthHz: number;
   /** Most decimated samples to keep (default 2^20). */
   readonly maxSamples?: number | undefined;
-  /** Input samples per block read (default 262 144). */
+  /** Input samples per block read (default 65 536: each block the source reads is a fresh array, so a small one keeps the garbage between collections small). */
   readonly blockSamples?: number | undefined;
   readonly onProgress?: ((doneSamples: number, totalSamples: number) => void) | undefined;
 }
@@ -36,7 +36,7 @@ export interface Pass2Result {
   readonly warnings: readonly string[];
 }
 
-export const PASS2_DEFAULTS = { maxSamples: 1 << 20, blockSamples: 262_144 } as const;
+export const PASS2_DEFAULTS = { maxSamples: 1 << 20, blockSamples: 65_536 } as const;
 
 export async function runPass2(source: CaptureSource, span: SampleSpan, options: Pass2Options): Promise<Pass2Result> {
   const fs = source.meta.sampleRateHz;

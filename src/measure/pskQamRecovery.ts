@@ -12,11 +12,19 @@
  * 5. EVM/MER against the decisions (evm.ts).
  * When `order` is not given every kind in RECOVERY_DEFAULTS.kinds is tried from step 3 on and the
  * most likely is kept (bestConstellation).
+ *
+ * Memory: the record is read in place (no copy at the input rate). The timing needs |y|² of the
+ * matched filter (one double a sample); the symbols are then filtered only at the four samples
+ * around each instant that the interpolation reads, the frequency-shifted record as the output of
+ * shifted taps (matchedFilter.ts, filteredAt), so no shifted copy of the record is made. One
+ * padded transform of ≥ 4·K points serves every carrier estimate. At most maxSymbols symbols
+ * (K ≤ 2^15 by default) are recovered: 16·K bytes a symbol array (512 KiB), 48·4·K bytes for the
+ * transform (6 MiB), 8 bytes an input sample for |y|² (K·sps samples).
  */
 import { CONSTELLATION_KINDS, rootRaisedCosineTaps, type ConstellationKind } from "../dsp/index.js";
-import { derotate, powerLineCarrier, trackPhase } from "./carrierRecovery.js";
+import { derotate, lineTransform, powerLineCarrier, trackPhase, type LineTransform } from "./carrierRecovery.js";
 import { bestConstellation, evmFigures, normaliseGain, type EvmFigures } from "./evm.js";
-import { matchedFilter, sampleAt } from "./matchedFilter.js";
+import { filteredAt, matchedFilterPower } from "./matchedFilter.js";
 import { measurement, type Measurement } from "./measurement.js";
 import { symbolInstants } from "./symbolTiming.js";
 
@@ -27,13 +35,14 @@ export interface RecoveryOptions {
   readonly rollOff?: number;
   /** The constellation, when known; else every kind of RECOVERY_DEFAULTS.kinds is tried. */
   readonly order?: { readonly kind: ConstellationKind };
-  /** At most this many symbols are recovered (from the start). Default 100 000. */
+  /** At most this many symbols are recovered (from the start). Default 2^15 = 32 768: EVM to
+   * ±EVM/181 (k = 2, evm.ts), and the recovery's arrays bounded whatever the record's length. */
   readonly maxSymbols?: number;
 }
 
 /** Defaults of recoverSymbols. */
 export const RECOVERY_DEFAULTS = {
-  rollOff: 0.35, maxSymbols: 100_000, spanSymbols: 16, blockSymbols: 256, loopBandwidth: 0.002,
+  rollOff: 0.35, maxSymbols: 1 << 15, spanSymbols: 16, blockSymbols: 256, loopBandwidth: 0.002,
   kinds: CONSTELLATION_KINDS,
 } as const;
 
@@ -75,48 +84,35 @@ export function recoverSymbols(iq: Float32Array | Float64Array, sampleRateHz: nu
   const warnings: string[] = [];
   if (sps < 2 + alpha) warnings.push(`${sps.toFixed(2)} samples per symbol: the timing line of |y|² aliases below 2 + α`);
 
-  const y = matchedFilter(x, taps);
-  let times = symbolInstants(y, sps, RECOVERY_DEFAULTS.blockSymbols, margin);
+  let times = symbolInstants(matchedFilterPower(x, taps), sps, RECOVERY_DEFAULTS.blockSymbols, margin);
   if (times.length > maxSymbols) times = times.subarray(0, maxSymbols);
   if (times.length < 64) throw new RangeError(`the record holds ${times.length} whole symbols; at least 64 are needed`);
-  const raw = sampleAt(y, times);
+  const raw = filteredAt(x, taps, times);
   const kinds: readonly ConstellationKind[] = options.order ? [options.order.kind] : RECOVERY_DEFAULTS.kinds;
-
-  const candidates: Recovered[] = [];
-  for (const kind of kinds) candidates.push(recoverKind(x, times, raw, taps, kind, rs, sps, warnings));
-  if (candidates.length === 1) return candidates[0] as Recovered;
-  let best = candidates[0] as Recovered;
+  const transform = lineTransform(times.length);
+  if (kinds.length === 1) return recoverKind(x, times, raw, taps, kinds[0] as ConstellationKind, rs, sps, warnings, transform);
+  // Only the most likely candidate so far is kept.
+  let best: Recovered | null = null;
   let bestLl = -Infinity;
-  for (const c of candidates) {
+  for (const kind of kinds) {
+    const c = recoverKind(x, times, raw, taps, kind, rs, sps, warnings, transform);
     const ll = bestConstellation(c.symbols, [c.kind]).scores[0]?.logLikelihood ?? -Infinity;
-    if (ll > bestLl + 1e-3) { bestLl = ll; best = c; }
+    if (best === null || ll > bestLl + 1e-3) { bestLl = ll; best = c; }
   }
-  return best;
+  return best as Recovered;
 }
 
 /** Steps 3–5 for one constellation. */
 function recoverKind(
   x: Float32Array | Float64Array, times: Float64Array, raw: Float64Array, taps: Float64Array,
-  kind: ConstellationKind, rs: number, sps: number, baseWarnings: readonly string[],
+  kind: ConstellationKind, rs: number, sps: number, baseWarnings: readonly string[], transform: LineTransform,
 ): Recovered {
   const warnings = [...baseWarnings];
-  const coarse = powerLineCarrier(normaliseGain(raw, kind).symbols, kind);
-  // Remove the coarse frequency from the samples, filter and sample again.
-  const n = x.length >> 1;
-  const shifted = new Float64Array(2 * n);
-  const w = (-2 * Math.PI * coarse.frequencyCyclesPerSymbol) / sps;
-  for (let k = 0; k < n; k++) {
-    const ph = w * k;
-    const cs = Math.cos(ph);
-    const sn = Math.sin(ph);
-    const i = x[2 * k] as number;
-    const q = x[2 * k + 1] as number;
-    shifted[2 * k] = i * cs - q * sn;
-    shifted[2 * k + 1] = i * sn + q * cs;
-  }
-  const second = sampleAt(matchedFilter(shifted, taps), times);
+  const coarse = powerLineCarrier(normaliseGain(raw, kind).symbols, kind, transform);
+  // Remove the coarse frequency from the samples, filter and sample again (at the instants only).
+  const second = filteredAt(x, taps, times, -coarse.frequencyCyclesPerSymbol / sps);
   const unit = normaliseGain(second, kind).symbols;
-  const fine = powerLineCarrier(unit, kind);
+  const fine = powerLineCarrier(unit, kind, transform);
   const aligned = derotate(unit, fine.frequencyCyclesPerSymbol, fine.phaseRad);
   const tracked = trackPhase(aligned, kind, RECOVERY_DEFAULTS.loopBandwidth);
   const final = normaliseGain(tracked.symbols, kind);

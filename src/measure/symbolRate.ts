@@ -15,7 +15,7 @@
  * - "frequency" (FSK): (f[n+1] − f[n])², f the instantaneous frequency of the discriminator.
  *
  * Estimator: the mean is removed, the feature (at most 2^19 samples) is zero-padded to twice its
- * length and transformed; the largest bin with a frequency in [minBd, maxBd] is the coarse line,
+ * length and transformed (as a real sequence, through a complex transform of half the length); the largest bin with a frequency in [minBd, maxBd] is the coarse line,
  * unless a line at 1/4, 1/3 or 1/2 of its frequency also stands clear (transition features of
  * rectangular keying have equal lines at every k·Rs; the lowest is taken), then the periodogram maximum is refined by Newton steps on |X(ν)|² (Rife & Boorstyn 1974,
  * "Single-tone parameter estimation from discrete-time observations", IEEE Trans. Inf. Theory
@@ -79,12 +79,8 @@ export function symbolRateBlind(iq: Float32Array | Float64Array, sampleRateHz: n
     hi = Math.min(hi, options.hintBd * (1 + SYMBOL_RATE_DEFAULTS.hintFraction));
   }
   if (!(lo > 0) || !(hi > lo) || hi > sampleRateHz / 2) throw new RangeError(`symbol-rate range ${lo}..${hi} Bd is empty or not within (0, fs/2]`);
-  const plan = fftPlan(size);
-  const input = plan.createBuffer();
-  const out = plan.createBuffer();
-  for (let k = 0; k < n; k++) input[2 * k] = feature[k] as number;
-  plan.forward(out, input);
-  const power = (k: number): number => (out[2 * k] as number) ** 2 + (out[2 * k + 1] as number) ** 2;
+  const spectrum = paddedRealPower(feature, size);
+  const power = (k: number): number => spectrum[k] as number;
   const kLo = Math.max(1, Math.ceil(lo / df));
   const kHi = Math.min(size / 2, Math.floor(hi / df));
   if (kHi < kLo) throw new RangeError(`symbol-rate range ${lo}..${hi} Bd holds no bin of width ${df} Hz`);
@@ -123,6 +119,43 @@ export function symbolRateBlind(iq: Float32Array | Float64Array, sampleRateHz: n
   const rate = nu * sampleRateHz;
   if (rate < 4 * sampleRateHz / n) warnings.push(`the record holds only ${(rate * n / sampleRateHz).toFixed(1)} symbols`);
   return measurement(rate, "Bd", 2 * Math.sqrt(crbVar), `${method}, ${n} samples, line ${(10 * Math.log10(ratio)).toFixed(1)} dB over background`, warnings);
+}
+
+/**
+ * |X[k]|², k = 0 … size/2, of the size-point DFT of the real `x` zero-padded to `size` (a power
+ * of two ≥ 4), from one complex transform of size/2 points: z[m] = x[2m] + j·x[2m+1] gives the
+ * transforms of the even and odd samples, E[k] = (Z[k] + Z*[M−k])/2 and
+ * O[k] = (Z[k] − Z*[M−k])/(2j), M = size/2, and X[k] = E[k] + e^(−j2πk/size)·O[k] (the standard
+ * real-input packing, e.g. Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed.,
+ * problem 9.41; from memory). Half the transform of padding x as a complex record, so half its
+ * memory (16 bytes a point for each buffer and for the plan's table).
+ */
+function paddedRealPower(x: Float64Array, size: number): Float64Array {
+  const m = size >> 1;
+  const plan = fftPlan(m);
+  const input = plan.createBuffer();
+  const out = plan.createBuffer();
+  for (let k = 0; k < x.length; k++) input[k] = x[k] as number;
+  plan.forward(out, input);
+  const power = new Float64Array(m + 1);
+  for (let k = 0; k <= m; k++) {
+    const a = 2 * (k % m);
+    const b = 2 * ((m - k) % m);
+    const ar = out[a] as number;
+    const ai = out[a + 1] as number;
+    const br = out[b] as number;
+    const bi = -(out[b + 1] as number);
+    const er = (ar + br) / 2;
+    const ei = (ai + bi) / 2;
+    const or = (ai - bi) / 2;
+    const oi = -(ar - br) / 2;
+    const c = Math.cos((2 * Math.PI * k) / size);
+    const sn = -Math.sin((2 * Math.PI * k) / size);
+    const xr = er + c * or - sn * oi;
+    const xi = ei + c * oi + sn * or;
+    power[k] = xr * xr + xi * xi;
+  }
+  return power;
 }
 
 /** The chosen feature, mean removed, as a Float64Array of at most maxSamples values. */

@@ -15,10 +15,11 @@
 
 /**
  * The instants (in samples of y) of the symbol centres k = 0, 1, …: t_k = k·sps + τ(k), keeping
- * those with margin ≤ t_k ≤ N − 1 − margin. y interleaved I,Q; blockSymbols B ≥ 16.
+ * those with margin ≤ t_k ≤ N − 1 − margin. `power` is |y[n]|² of the matched-filter output
+ * (matchedFilterPower); blockSymbols B ≥ 16.
  */
-export function symbolInstants(y: Float64Array, samplesPerSymbol: number, blockSymbols: number, margin: number): Float64Array {
-  const n = y.length >> 1;
+export function symbolInstants(power: Float64Array, samplesPerSymbol: number, blockSymbols: number, margin: number): Float64Array {
+  const n = power.length;
   const sps = samplesPerSymbol;
   const blockSamples = blockSymbols * sps;
   const blocks = Math.max(1, Math.floor(n / blockSamples));
@@ -30,7 +31,7 @@ export function symbolInstants(y: Float64Array, samplesPerSymbol: number, blockS
     let re = 0;
     let im = 0;
     for (let k = lo; k < hi; k++) {
-      const p = (y[2 * k] as number) ** 2 + (y[2 * k + 1] as number) ** 2;
+      const p = power[k] as number;
       // Phase from k mod sps keeps the argument small and exact.
       const ph = w * (k - sps * Math.floor(k / sps));
       re += p * Math.cos(ph);
