@@ -18,6 +18,7 @@ import {
   fmFigures,
   frequencyErrorPpmOf,
   locateEmission,
+  removeLine,
   measurement,
   necessaryBandwidthAmHz,
   necessaryBandwidthFmHz,
@@ -77,14 +78,16 @@ export async function measureEmission(
   checkOptions(options, meta);
   const floor = pass1.noiseFloor.densityPerHz;
   const warnings: string[] = [];
-  const dc = detectDcSpike(pass1.psd, floor);
+  const dcOffsetDbfs = pass1.health.dcOffsetDbfs;
+  const dc = detectDcSpike(pass1.psd, floor, { dcOffsetDbfs });
   const dcSpike = { present: dc.present, levelDbfs: dc.present ? dc.levelDbfs : null, widthHz: dc.present ? dc.widthHz : null };
-  const region = locateEmission(pass1.psd, floor, { channel: options.channel });
+  const region = locateEmission(pass1.psd, floor, { channel: options.channel, dcOffsetDbfs });
   if (region === null) {
     warnings.push("no emission stands above the noise floor: nothing to measure");
     return noEmission(pass1, dcSpike, xDb, options.nominalHz ?? null, warnings);
   }
-  if (dc.present) warnings.push(`a receiver DC spike at 0 Hz (${dc.levelDbfs.toFixed(1)} dBFS) was not taken for the emission`);
+  if (region.dcSpikeSkipped) warnings.push(`a receiver DC spike at 0 Hz (${dc.levelDbfs.toFixed(1)} dBFS) was not taken for the emission`);
+  else if (region.dcSpikeInside) warnings.push(`the line at 0 Hz (${dc.levelDbfs.toFixed(1)} dBFS) lies inside the emission and was measured as part of it: it may be the receiver's DC spike rather than a carrier`);
 
   // The channel to extract: the user's, or the region found with room for its skirts.
   const givenByUser = options.channel !== undefined;
@@ -93,6 +96,8 @@ export async function measureEmission(
   const pass2 = await runPass2(source, span, { offsetHz, bandwidthHz: widthHz, maxSamples: options.maxChannelSamples, onProgress: options.onProgress });
   warnings.push(...pass2.warnings);
   const fsc = pass2.sampleRateHz;
+  // The receiver's DC line, set aside above, sits at −offsetHz in the channel: remove it there too.
+  if (region.dcSpikeSkipped && Math.abs(offsetHz) < fsc / 2) removeLine(pass2.iq, fsc, -offsetHz);
   const half = widthHz / 2;
   // The audio low-pass must fit below the channel's Nyquist frequency (with its transition band).
   const audioHz = Math.min(audioBandwidthHz, 0.39 * fsc);

@@ -1,44 +1,78 @@
 /**
- * A receiver DC spike: the narrow line that direct-conversion receivers leave at 0 Hz (LO
- * leakage, ADC offset). It is told from an emission by its shape, not its level:
+ * A receiver DC spike: the line that direct-conversion (zero-IF) receivers leave at 0 Hz (LO
+ * leakage, ADC offset; common practice for zero-IF receivers, not from a standard). It is told
+ * from an emission by its shape and by what stands beside it, not by its level, so the rule holds
+ * when the DC line is the strongest thing in the capture:
  *
  * - core: the bins within h of the DC bin, h = the window's main-lobe half-width in bins
- *   (rectangular 1, Hann 2, Blackman–Harris 4; Harris 1978 Table 1), so an on-bin line of any
- *   strength stays inside it (at most 3 bins above the floor with Hann);
- * - the DC bin is the largest of the core and exceeds floor × 10^(thresholdDb/10);
- * - guard: on each side, the mean of the next `guardBins` bins beyond the core is within
- *   `guardDb` (3 dB) of the floor, i.e. only noise stands beside it.
+ *   (rectangular 1, Hann 2, Blackman–Harris 4; Harris 1978 Table 1);
+ * - position: the DC bin is the largest of the core (a constant is exactly at 0 Hz), and the two
+ *   bins beside it agree within `symmetryDb` (3 dB): a line δ bins off centre makes them differ by
+ *   about 1.5 dB per 0.1 bin with Hann, so 3 dB admits a line within ±0.2 bin of 0 Hz;
+ * - width: the core's equivalent width, W = Σ (PSD − local)·Δf / (PSD_dc − local), lies between
+ *   ENBW·Δf (an on-bin line) and ENBW·Δf·10^(scallop/10) (a line half a bin off) for any line,
+ *   whatever its level (Harris 1978 §IV, ENBW and scallop loss), and is larger for anything
+ *   wider than a line; W may exceed the on-bin value by `widthTolerance` (10 %, the scatter of a
+ *   Welch average of a few tens of segments);
+ * - level: the DC bin stands `thresholdDb` (10 dB) above both the noise floor and the local level,
+ *   the median of the `guardBins` bins on each side beyond the core. The median, not the mean, so
+ *   that the sparse spurs an 8-bit quantiser adds around a strong DC line (harmonics of the
+ *   carriers and their intermodulation with the DC term) do not hide it;
+ * - when the capture's own DC offset (its mean, pass-1 health) is given, the core's line power
+ *   must be within `healthToleranceDb` (3 dB) of it: a DC offset is the mean of the samples, while
+ *   a narrow emission near 0 Hz that is not coherent over the capture has a small mean.
  *
- * A carrier at exactly 0 Hz with no sideband within the guard looks the same and is reported as
- * present too; locateEmission then takes it back when sidebands sit mirror-symmetric about 0 Hz.
- * The rule is common practice for zero-IF receivers, not from a standard.
+ * A carrier at exactly 0 Hz looks the same (it is a mean too) and is reported as present;
+ * locateEmission takes it back when the emission spans 0 Hz or has sidebands mirror-symmetric
+ * about it.
  */
-import { dbToPower, powerToDb, type WelchPsd } from "../dsp/index.js";
+import { dbToPower, enbwBins, powerToDb, windowCoefficients, type WelchPsd, type WindowName } from "../dsp/index.js";
 
 /** The result of detectDcSpike. levelDbfs and widthHz describe the core even when not present. */
 export interface DcSpike {
   readonly present: boolean;
-  /** Power of the core above the floor, Σ (PSD − floor)·Δf, dBFS. */
+  /** Power of the core above the local level, Σ (PSD − local)·Δf, dBFS. */
   readonly levelDbfs: number;
-  /** Contiguous bins around DC more than 3 dB above the floor, times the bin width, Hz. */
+  /** Contiguous bins around DC more than 3 dB above the local level, times the bin width, Hz. */
   readonly widthHz: number;
   /** Centred index range [first, last] of the core bins. */
   readonly coreBins: readonly [number, number];
+  /** The local level beside the core (median of the guard bins, at least the floor), FS²/Hz. */
+  readonly localDensityPerHz: number;
 }
 
 /** Options of detectDcSpike, defaults in DC_SPIKE_DEFAULTS. */
 export interface DcSpikeOptions {
   readonly thresholdDb?: number;
   readonly guardBins?: number;
-  readonly guardDb?: number;
+  readonly symmetryDb?: number;
+  readonly widthTolerance?: number;
+  /** The capture's DC offset (pass-1 health), dBFS; not checked when absent. */
+  readonly dcOffsetDbfs?: number | undefined;
+  readonly healthToleranceDb?: number;
 }
 
-/** Defaults: 10 dB above the floor, 8 guard bins each side, guard mean within 3 dB of the floor. */
-export const DC_SPIKE_DEFAULTS: Required<DcSpikeOptions> = { thresholdDb: 10, guardBins: 8, guardDb: 3 };
+/** Defaults: 10 dB above floor and local level, 16 guard bins each side, 3 dB symmetry, 10 % width, 3 dB health. */
+export const DC_SPIKE_DEFAULTS = { thresholdDb: 10, guardBins: 16, symmetryDb: 3, widthTolerance: 0.1, healthToleranceDb: 3 } as const;
 
 /** Main-lobe half-width of the PSD's window, bins (Harris 1978 Table 1). */
 export function mainLobeHalfWidthBins(psd: WelchPsd): number {
   return psd.window === "rectangular" ? 1 : psd.window === "hann" ? 2 : 4;
+}
+
+/** Largest equivalent width of a line, bins: ENBW times the scallop-loss factor |W(0)/W(½)|² (Harris 1978). */
+export function lineWidthBoundBins(window: WindowName, fftLength: number): number {
+  const w = windowCoefficients(window, fftLength);
+  let s = 0;
+  let re = 0;
+  let im = 0;
+  for (let k = 0; k < w.length; k++) {
+    const v = w[k] as number;
+    s += v;
+    re += v * Math.cos((Math.PI * k) / w.length);
+    im -= v * Math.sin((Math.PI * k) / w.length);
+  }
+  return enbwBins(w) * ((s * s) / (re * re + im * im));
 }
 
 /**
@@ -57,34 +91,72 @@ export function detectDcSpike(psd: WelchPsd, noiseFloorPerHz: number, options: D
   const h = mainLobeHalfWidthBins(psd);
   const first = Math.max(0, dc - h);
   const last = Math.min(n - 1, dc + h);
+  const local = Math.max(noiseFloorPerHz, guardMedian(p, first, last, o.guardBins));
   let excess = 0;
   let coreMax = 0;
   for (let i = first; i <= last; i++) {
-    excess += Math.max(0, (p[i] as number) - noiseFloorPerHz) * psd.binWidthHz;
+    excess += Math.max(0, (p[i] as number) - local) * psd.binWidthHz;
     coreMax = Math.max(coreMax, p[i] as number);
   }
-  const grow = noiseFloorPerHz * dbToPower(3);
+  const peak = p[dc] as number;
+  const grow = local * dbToPower(3);
   let lo = dc;
   let hi = dc;
-  if ((p[dc] as number) > grow) {
-    while (lo > 0 && (p[lo - 1] as number) > grow) lo--;
-    while (hi < n - 1 && (p[hi + 1] as number) > grow) hi++;
+  if (peak > grow) {
+    while (lo > first && (p[lo - 1] as number) > grow) lo--;
+    while (hi < last && (p[hi + 1] as number) > grow) hi++;
   }
-  const widthHz = (p[dc] as number) > grow ? (hi - lo + 1) * psd.binWidthHz : 0;
-  const strong = (p[dc] as number) > noiseFloorPerHz * dbToPower(o.thresholdDb) && (p[dc] as number) >= coreMax;
-  const guardLimit = noiseFloorPerHz * dbToPower(o.guardDb);
-  const quiet = (from: number, step: number): boolean => {
-    let s = 0;
-    let c = 0;
-    for (let k = 0; k < o.guardBins; k++) {
-      const i = from + step * k;
-      if (i < 0 || i >= n) break;
-      s += p[i] as number;
-      c++;
-    }
-    return c > 0 && s / c <= guardLimit;
-  };
-  const present = strong && quiet(first - 1, -1) && quiet(last + 1, 1);
-  return { present, levelDbfs: powerToDb(excess), widthHz, coreBins: [first, last] };
+  const widthHz = peak > grow ? (hi - lo + 1) * psd.binWidthHz : 0;
+  const strong = peak > local * dbToPower(o.thresholdDb) && peak >= coreMax;
+  const left = (p[dc - 1] as number) - local;
+  const right = (p[dc + 1] as number) - local;
+  const symmetric = psd.window === "rectangular" || (left > 0 && right > 0 && Math.abs(powerToDb(left / right)) <= o.symmetryDb);
+  const widthBins = excess / psd.binWidthHz / (peak - local);
+  const narrow = widthBins <= lineWidthBoundBins(psd.window, n) * (1 + o.widthTolerance);
+  const isMean = o.dcOffsetDbfs === undefined || Math.abs(powerToDb(excess) - o.dcOffsetDbfs) <= o.healthToleranceDb;
+  return { present: strong && symmetric && narrow && isMean, levelDbfs: powerToDb(excess), widthHz, coreBins: [first, last], localDensityPerHz: local };
 }
 
+/** Median of the `count` bins on each side beyond [first, last] (those inside the array). */
+function guardMedian(p: ArrayLike<number>, first: number, last: number, count: number): number {
+  const v: number[] = [];
+  for (let k = 1; k <= count; k++) {
+    if (first - k >= 0) v.push(p[first - k] as number);
+    if (last + k < p.length) v.push(p[last + k] as number);
+  }
+  if (v.length === 0) return 0;
+  v.sort((a, b) => a - b);
+  const m = v.length >> 1;
+  return v.length % 2 === 1 ? (v[m] as number) : ((v[m - 1] as number) + (v[m] as number)) / 2;
+}
+
+/**
+ * Removes a line of known frequency from a channel record (interleaved I,Q, in place): the
+ * least-squares amplitude a = mean(z·e^(−j2πft)) of the tone e^(j2πft) is subtracted. Used for the
+ * receiver DC line, which sits at −(channel offset) in the channel's baseband. Returns a, FS.
+ * The estimate is unbiased by any other line more than a few 1/T away (T the record length).
+ */
+export function removeLine(iq: Float32Array, sampleRateHz: number, lineHz: number): { re: number; im: number } {
+  const count = iq.length >> 1;
+  if (count === 0) return { re: 0, im: 0 };
+  const w = (2 * Math.PI * lineHz) / sampleRateHz;
+  let sr = 0;
+  let si = 0;
+  for (let k = 0; k < count; k++) {
+    const c = Math.cos(w * k);
+    const s = Math.sin(w * k);
+    const x = iq[2 * k] as number;
+    const y = iq[2 * k + 1] as number;
+    sr += x * c + y * s;
+    si += y * c - x * s;
+  }
+  const re = sr / count;
+  const im = si / count;
+  for (let k = 0; k < count; k++) {
+    const c = Math.cos(w * k);
+    const s = Math.sin(w * k);
+    iq[2 * k] = (iq[2 * k] as number) - (re * c - im * s);
+    iq[2 * k + 1] = (iq[2 * k + 1] as number) - (re * s + im * c);
+  }
+  return { re, im };
+}

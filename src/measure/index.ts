@@ -13,7 +13,7 @@ export {
 export {
   amFigures, AM_FIGURES_DEFAULTS, AM_EXTREME_QUANTILE, type AmFigures, type AmFiguresOptions, type AmTrace,
 } from "./amFigures.js";
-export { detectDcSpike, mainLobeHalfWidthBins, DC_SPIKE_DEFAULTS, type DcSpike, type DcSpikeOptions } from "./detectDcSpike.js";
+export { detectDcSpike, mainLobeHalfWidthBins, lineWidthBoundBins, removeLine, DC_SPIKE_DEFAULTS, type DcSpike, type DcSpikeOptions } from "./detectDcSpike.js";
 export {
   locateEmission, LOCATE_EMISSION_DEFAULTS, type EmissionRegion, type LocateEmissionOptions,
 } from "./locateEmission.js";
