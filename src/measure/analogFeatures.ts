@@ -21,6 +21,16 @@
  *   for a band B ≪ fs), over the occupied bandwidth. FM has it
  *   (tone FM: (D/√2)/OBW, 0.26 for β = 3); a carrier has none. Below about 10 dB SNR in the
  *   analysed band, phase wraps ("clicks") inflate ξ, so it is only read after the line test.
+ * - noiseLevelShare: the share of samples whose power |z|² is at the noise level, ≤ 4N (noise
+ *   alone exceeds 4N with probability e^−4 ≈ 2 %, |w|² being exponential with mean N). An on-off
+ *   keyed carrier sits there for its whole off share (≈ ½ for random bits).
+ * - amNoiseLevelShareMax: the most of that share AM of depth m ≤ 100 % can give at this S/N.
+ *   The envelope A(1 + m·cos φ) of tone AM never reaches 0 for m < 1 and at m = 1 is below εA for
+ *   a share acos(1 − ε)/π of the time (arcsine law of cos φ). A sample reads at the noise level
+ *   when |s| ≤ 2√N, or up to one noise rms more when the noise pulls it down: ε = 3√N/A, with
+ *   the smallest carrier the power allows, A² = S/1.5 (S = A²(1 + m²/2), m = 1). So
+ *   max = acos(1 − min(2, 3·√(1.5N/S)))/π + 0.02 (the 2 % of noise-only excursions). Speech has a
+ *   higher crest factor than a tone, so it dwells at its negative peaks less and stays below it.
  *
  * Records longer than 2^20 samples are analysed over their first 2^20 samples.
  */
@@ -38,6 +48,8 @@ export interface AnalogFeatures {
   readonly lineShare: number | null;
   readonly envelopeExcessVariance: number | null;
   readonly frequencySpread: number | null;
+  readonly noiseLevelShare: number | null;
+  readonly amNoiseLevelShareMax: number | null;
 }
 
 /** Options of analogFeatures. */
@@ -69,7 +81,7 @@ export function analogFeatures(
   const upperHz = Math.min(options.upperHz ?? sampleRateHz / 2, sampleRateHz / 2);
   const empty: AnalogFeatures = {
     snrDb: options.snrDb ?? null, occupiedHz: null, resolutionHz: psd.enbwHz,
-    lineShare: null, envelopeExcessVariance: null, frequencySpread: null,
+    lineShare: null, envelopeExcessVariance: null, frequencySpread: null, noiseLevelShare: null, amNoiseLevelShareMax: null,
   };
   if (!(floor > 0)) return empty;
   const obw = occupiedBandwidth(psd, { lowerHz, upperHz, noiseFloorPerHz: floor }).occupiedHz.value;
@@ -80,10 +92,11 @@ export function analogFeatures(
   const lineShare = strongestLineShare(psd, lowerHz, upperHz, floor);
   const band = bandLimited(iq, sampleRateHz, lowerHz, upperHz);
   const noisePower = floor * band.widthHz;
-  const { kappa, spreadHz } = envelopeAndFrequency(band.iq, sampleRateHz, noisePower, band.lowerHz, band.upperHz);
+  const { kappa, spreadHz, noiseShare, signalPower } = envelopeAndFrequency(band.iq, sampleRateHz, noisePower, band.lowerHz, band.upperHz);
   return {
     snrDb, occupiedHz: obw, resolutionHz: psd.enbwHz, lineShare,
     envelopeExcessVariance: kappa, frequencySpread: spreadHz === null ? null : spreadHz / obw,
+    noiseLevelShare: noiseShare, amNoiseLevelShareMax: signalPower === null ? null : amNoiseLevelShareMax(signalPower, noisePower),
   };
 }
 
@@ -115,9 +128,17 @@ function bandLimited(
   return full ? { ...r, lowerHz: -fs / 2, upperHz: fs / 2 } : { ...r, lowerHz, upperHz };
 }
 
+/** The largest noise-level share of AM with depth ≤ 100 % at signal power S and noise N (module comment). */
+export function amNoiseLevelShareMax(signalPower: number, noisePower: number): number {
+  const eps = Math.min(2, 3 * Math.sqrt((1.5 * noisePower) / signalPower));
+  return Math.acos(1 - eps) / Math.PI + 0.02;
+}
+
+interface EnvelopeAndFrequency { kappa: number | null; spreadHz: number | null; noiseShare: number | null; signalPower: number | null }
+
 function envelopeAndFrequency(
   z: Float64Array, fs: number, noisePower: number, lowerHz: number, upperHz: number,
-): { kappa: number | null; spreadHz: number | null } {
+): EnvelopeAndFrequency {
   const n = z.length / 2;
   // Skip 5 % at each end, where the circular band-limiting rings.
   const from = Math.max(1, Math.floor(0.05 * n));
@@ -127,10 +148,12 @@ function envelopeAndFrequency(
   let f1 = 0;
   let f2 = 0;
   let count = 0;
+  let atNoise = 0;
   for (let k = from; k < to; k++) {
     const i = z[2 * k] as number;
     const q = z[2 * k + 1] as number;
     const p = i * i + q * q;
+    if (p <= 4 * noisePower) atNoise++;
     m1 += p;
     m2 += p * p;
     const pi = z[2 * k - 2] as number;
@@ -140,15 +163,17 @@ function envelopeAndFrequency(
     f2 += f * f;
     count++;
   }
-  if (count < 8) return { kappa: null, spreadHz: null };
+  if (count < 8) return { kappa: null, spreadHz: null, noiseShare: null, signalPower: null };
   m1 /= count;
   const varP = m2 / count - m1 * m1;
   const s = m1 - noisePower;
-  if (!(s > 0)) return { kappa: null, spreadHz: null };
+  const noiseShare = atNoise / count;
+  if (!(s > 0)) return { kappa: null, spreadHz: null, noiseShare, signalPower: null };
   const kappa = (varP - 2 * s * noisePower - noisePower * noisePower) / (s * s);
   f1 /= count;
   const varF = f2 / count - f1 * f1;
-  return { kappa, spreadHz: Math.sqrt(Math.max(0, varF - frequencyNoiseVariance(fs, noisePower / (upperHz - lowerHz), s, lowerHz - f1, upperHz - f1))) };
+  const spreadHz = Math.sqrt(Math.max(0, varF - frequencyNoiseVariance(fs, noisePower / (upperHz - lowerHz), s, lowerHz - f1, upperHz - f1)));
+  return { kappa, spreadHz, noiseShare, signalPower: s };
 }
 
 /**

@@ -2,9 +2,13 @@
  * Analogue modulation class from measured features (analogFeatures.ts). Rules, in order:
  *
  * 1. noise: no SNR, or SNR below 6 dB (too little above the noise to say more).
- * 2. am: the power envelope varies, κ ≥ 0.01, and a carrier line holds ≥ 40 % of the power
+ * 2. am: the power envelope varies, κ ≥ 0.01, a carrier line holds ≥ 40 % of the power
  *    (double-sideband full-carrier AM keeps at least 2/3 in its carrier at 100 % tone depth,
- *    REFERENCES.md §5).
+ *    REFERENCES.md §5), and the envelope sits at the noise level no longer than AM of depth
+ *    ≤ 100 % allows (analogFeatures.ts `amNoiseLevelShareMax`: tone AM at m < 1 never reaches 0,
+ *    at m = 1 only near the troughs, a share acos(1 − ε)/π). An envelope at the noise level
+ *    longer than that (on-off keying: the whole off share, about ½) is keying or over-modulation,
+ *    not AM: the class is then unknown here and classifyEmission decides (ook).
  * 3. cw: a line holds ≥ 90 % of the power and the envelope is constant, κ < 0.01.
  * 4. fm: constant envelope, κ < 0.01, and an instantaneous-frequency spread ξ ≥ 0.03 of the
  *    occupied bandwidth (frequency modulation moves the frequency, not the amplitude).
@@ -18,6 +22,9 @@
  *
  * confidence: 0.5 + 0.5 × the smallest margin by which the deciding features clear their
  * thresholds (each margin ramped 0..1 over a stated span); a score of clarity, not a probability.
+ * 0.5 means a feature sits on its threshold, 1 that every deciding feature clears it by the
+ * whole span. For am the noise-level share is one of them (span 0.05 below its bound), so an
+ * envelope that dwells at the noise floor near the limit of AM cannot read am at 1.
  */
 import type { AnalogFeatures } from "./analogFeatures.js";
 
@@ -33,7 +40,7 @@ export interface AnalogClassification {
 
 /** Thresholds of classifyAnalog (module comment). */
 export const CLASSIFY_ANALOG_THRESHOLDS = {
-  minSnrDb: 6, envelopeKappa: 0.01, amLineShare: 0.4, cwLineShare: 0.9, fmSpread: 0.03,
+  minSnrDb: 6, envelopeKappa: 0.01, amLineShare: 0.4, cwLineShare: 0.9, fmSpread: 0.03, amNoiseShareSpan: 0.05,
 } as const;
 
 const ramp = (x: number, a: number, b: number): number => Math.min(1, Math.max(0, (x - a) / (b - a)));
@@ -50,7 +57,16 @@ export function classifyAnalog(features: AnalogFeatures): AnalogClassification {
   const note = `SNR ${snrDb.toFixed(1)} dB, line share ${fmt(lineShare)}, envelope kappa ${fmt(kappa)}, frequency spread ${fmt(xi)}`;
   if (kappa === null || lineShare === null) return { class: "unknown", confidence: 0.5, method: `${note}: features missing` };
   if (kappa >= t.envelopeKappa && lineShare >= t.amLineShare) {
-    const c = Math.min(snrMargin, ramp(kappa, t.envelopeKappa, 3 * t.envelopeKappa), ramp(lineShare, t.amLineShare, t.amLineShare + 0.2));
+    const share = features.noiseLevelShare;
+    const max = features.amNoiseLevelShareMax;
+    if (share !== null && max !== null && share > max) {
+      return {
+        class: "unknown", confidence: 0.5,
+        method: `${note}: the envelope sits at the noise level ${(100 * share).toFixed(1)} % of the time, more than AM of depth ≤ 100 % gives (${(100 * max).toFixed(1)} %): keyed or over-modulated`,
+      };
+    }
+    const shareMargin = share === null || max === null ? 1 : ramp(max - share, 0, t.amNoiseShareSpan);
+    const c = Math.min(snrMargin, ramp(kappa, t.envelopeKappa, 3 * t.envelopeKappa), ramp(lineShare, t.amLineShare, t.amLineShare + 0.2), shareMargin);
     return { class: "am", confidence: 0.5 + 0.5 * c, method: `${note}: varying envelope with a carrier line` };
   }
   const constantEnvelope = 1 - ramp(kappa, t.envelopeKappa / 2, t.envelopeKappa);

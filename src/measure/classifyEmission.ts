@@ -4,9 +4,11 @@
  * digital features of digitalFeatures.ts. Rules, in order:
  *
  * 1. noise and cw from the analogue decision stand (no SNR, or one line with a flat envelope).
- * 2. ook (order 2): the smoothed envelope dwells at two levels (middle-half share
- *    ≤ 0.15; a sinusoidal envelope gives 1/3), the off level lies within 6 dB of the noise in
- *    the band and at least 10 dB below the on level.
+ * 2. ook (order 2): the smoothed envelope dwells at two levels (middle-half share ≤ 0.2:
+ *    keying with raised-cosine edges up to half a symbol gives ≤ 0.15 at high SNR, a sinusoidal
+ *    envelope 1/3 by the arcsine law; digitalFeatures.ts), the off level lies within 6 dB of the
+ *    noise in the band and at least 10 dB below the on level. It comes before the analogue am:
+ *    a depth read over 100 % with an envelope at the noise level for the off share is keying.
  * 3. fsk: near-constant envelope (κ < 0.25), per-symbol frequencies in 4 clusters of separation
  *    ≥ 6 (gap over pooled σ; midpoint-threshold error Q(3) ≈ 1e-3) with gaps within a factor 2
  *    of each other → order 4; else 2 clusters of separation ≥ 6 → order 2. A strict alternation
@@ -48,7 +50,7 @@ export interface ClassifyEmissionOptions {
 
 /** Thresholds of classifyEmission (module comment). */
 export const CLASSIFY_EMISSION_THRESHOLDS = {
-  ookMidFraction: 0.15, ookOffOverNoiseDb: 6, ookOnOffDb: 10,
+  ookMidFraction: 0.2, ookOffOverNoiseDb: 6, ookOnOffDb: 10,
   fskKappa: 0.25, fskSeparation: 6, fskGapRatio: 2, fskRepeatFraction: 0.1,
   linearDistance: 0.3, minMargin: 0.1,
 } as const;

@@ -7,7 +7,12 @@
  *   method from gray-level histograms", IEEE Trans. SMC 9(1), 1979). `midFraction` is the share of
  *   time the smoothed envelope spends in the middle half between the two level means: keyed
  *   levels dwell at the ends (only the transitions cross), a sinusoidal envelope (tone AM) spends
- *   1/3 of the time there (arcsine law). `offOverNoiseDb`: off-level power over the noise power
+ *   1/3 of the time there (arcsine law). Keying crosses it only in its transitions: with random
+ *   bits (a transition every second symbol) and the quarter-symbol smoother, rectangular keying
+ *   spends 1/16 of the time there (half of a T/4 ramp per two symbols) and raised-cosine edges over
+ *   a share r of a symbol add about r/6 (a third of each edge lies in the middle half), so ≤ 0.15
+ *   for edges up to half a symbol. `offOverNoiseDb`: the off level (offLevel: the noise-equivalent
+ *   median of the samples dwelling in the lower quarter between the levels) over the noise power
  *   in the band.
  * - FSK: the instantaneous frequency of the record band-limited to 1.2 × its 99 % band, averaged
  *   over each symbol (rate from the frequency-transition line), at the timing phase of 8 that
@@ -202,19 +207,37 @@ function envelopeKeying(iq: Float32Array | Float64Array, fs: number, floor: numb
   }
   const smooth = movingAverage(mag, Math.max(1, Math.round(fs / rate / 4)));
   const split = envelopeSplit(smooth);
-  let on = 0, onCount = 0, off = 0, mid = 0;
+  let on = 0, onCount = 0, mid = 0;
   const gap = split.highMean - split.lowMean;
+  const offDwell: number[] = [];
   for (let k = 0; k < n; k++) {
     const v = smooth[k] as number;
-    if (v > split.threshold) { on += pow[k] as number; onCount++; } else off += pow[k] as number;
-    if (v > split.lowMean + 0.25 * gap && v < split.highMean - 0.25 * gap) mid++;
+    if (v > split.threshold) { on += pow[k] as number; onCount++; }
+    if (v <= split.lowMean + 0.25 * gap) offDwell.push(pow[k] as number);
+    else if (v < split.highMean - 0.25 * gap) mid++;
   }
   const onPower = onCount > 0 ? on / onCount : 0;
-  const offPower = n - onCount > 0 ? off / (n - onCount) : 0;
+  const offPower = offLevel(offDwell);
   return {
     symbolRateBd: rate, onPower, offPower, midFraction: mid / n,
     offOverNoiseDb: 10 * Math.log10(Math.max(offPower, 1e-30) / (floor * fs)), dutyFraction: onCount / n,
   };
+}
+
+/**
+ * The off level of a keyed envelope: the median power of the samples dwelling in the lower
+ * quarter between the levels, over ln 2. For noise alone |w|² is exponential and its median is
+ * N·ln 2, so this is N; the median ignores the tails of soft keying edges (samples of a
+ * transition below a quarter of the gap, a minority of the dwell), which a mean would count.
+ * A carrier leaking through the off state (|c|² ≫ N) reads 1.6 dB high, on the safe side of the
+ * off-level rule.
+ */
+function offLevel(powers: number[]): number {
+  if (powers.length === 0) return 0;
+  powers.sort((a, b) => a - b);
+  const m = powers.length >> 1;
+  const median = powers.length % 2 === 1 ? (powers[m] as number) : ((powers[m - 1] as number) + (powers[m] as number)) / 2;
+  return median / Math.LN2;
 }
 
 /** Per-symbol mean instantaneous frequency at the best of 8 timing phases. */

@@ -23,7 +23,7 @@ export {
 } from "./occupiedBandwidth.js";
 export { xDbBandwidth, X_DB_BANDWIDTH_DEFAULTS, type XDbBandwidth, type XDbBandwidthOptions } from "./xDbBandwidth.js";
 export { channelPower, type ChannelPower, type ChannelPowerOptions } from "./channelPower.js";
-export { analogFeatures, type AnalogFeatures, type AnalogFeaturesOptions } from "./analogFeatures.js";
+export { analogFeatures, amNoiseLevelShareMax, type AnalogFeatures, type AnalogFeaturesOptions } from "./analogFeatures.js";
 export {
   classifyAnalog, CLASSIFY_ANALOG_THRESHOLDS, type AnalogClass, type AnalogClassification,
 } from "./classifyAnalog.js";

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { analogFeatures, classifyAnalog, classifyEmission, type EmissionClass } from "../../src/measure/index.js";
+import { amNoiseLevelShareMax, analogFeatures, classifyAnalog, classifyEmission, type EmissionClass } from "../../src/measure/index.js";
 import {
   amFromAudio, CONSTELLATION_ORDER, fmFromAudio, frequencyShift, SeededRandom, speechLikeAudio, tone, toneAudio, type ConstellationKind,
 } from "../../src/scenario/index.js";
@@ -83,5 +83,98 @@ describe("classifyEmission(iq, fs, psd, { snrDb, analog })", () => {
     const psd = psdOf(iq, 512, 8000);
     const analog = { class: "unknown" as const, confidence: 0.5, method: "" };
     expect(() => classifyEmission(Float32Array.from(iq), 16000, psd, { snrDb: 20, analog })).toThrow(RangeError);
+  });
+});
+
+/**
+ * On-off keying of random bits at `rb` Bd with raised-cosine edges over a share `edge` of a
+ * symbol, centred on each symbol boundary (amplitude 0.5, random phase), SNR over the 47 CFR
+ * 2.202(g) A1A bandwidth 5·rb.
+ */
+function softOok(fs: number, rb: number, edge: number, snrDb: number, seed: number): Float64Array {
+  const rng = new SeededRandom(seed);
+  const bits = Array.from({ length: Math.ceil((N / fs) * rb) + 2 }, () => rng.integer(2));
+  const ph = rng.uniform() * 2 * Math.PI;
+  const iq = new Float64Array(2 * N);
+  const rc = (from: number, to: number, u: number): number => from + ((to - from) * (1 - Math.cos(Math.PI * u))) / 2;
+  for (let k = 0; k < N; k++) {
+    const t = (k / fs) * rb;
+    const j = Math.floor(t);
+    const frac = t - j;
+    let e = bits[j] as number;
+    if (frac < edge / 2 && j > 0) e = rc(bits[j - 1] as number, e, (frac + edge / 2) / edge);
+    else if (frac > 1 - edge / 2) e = rc(e, bits[j + 1] as number, (frac - 1 + edge / 2) / edge);
+    iq[2 * k] = 0.5 * e * Math.cos(ph);
+    iq[2 * k + 1] = 0.5 * e * Math.sin(ph);
+  }
+  return withSnr(iq, fs, snrDb, 5 * rb, seed + 1);
+}
+
+function decide(iq: Float64Array, fs: number): { c: ReturnType<typeof classifyEmission>; analog: ReturnType<typeof classifyAnalog>; af: ReturnType<typeof analogFeatures> } {
+  const f32 = Float32Array.from(iq);
+  const psd = psdOf(iq, 512, fs);
+  const af = analogFeatures(f32, fs, psd);
+  const analog = classifyAnalog(af);
+  return { c: classifyEmission(f32, fs, psd, { snrDb: af.snrDb, analog }), analog, af };
+}
+
+describe("keying with soft edges against AM (arcsine law of tone AM; an OOK envelope sits at the noise for its off share)", () => {
+  it("the AM noise-level bound: acos(1 − ε)/π + 2 % with ε = 3·√(1.5N/S) (arcsine law of cos φ)", () => {
+    // ε = 1 at S = 13.5 N: acos(0)/π = 1/2; small ε: acos(1 − ε) ≈ √(2ε) (Taylor), here
+    // ε = 3·√1.5·10⁻⁶; ε ≥ 2: all of the time.
+    expect(amNoiseLevelShareMax(13.5, 1)).toBeCloseTo(0.52, 12);
+    expect(amNoiseLevelShareMax(1e12, 1)).toBeCloseTo(Math.sqrt(2 * 3 * Math.sqrt(1.5e-12)) / Math.PI + 0.02, 8);
+    expect(amNoiseLevelShareMax(1, 1)).toBeCloseTo(1.02, 12);
+  });
+
+  // Fresh seeds, not those of the rules' derivation; rates and edges over the range of the issue.
+  const ookCases = [
+    [1200, 0.2, 30, 8101], [1200, 0.3, 40, 8102], [2400, 0.25, 35, 8103], [2400, 0.3, 30, 8104], [4800, 0.2, 40, 8105], [4800, 0.3, 35, 8106],
+  ] as const;
+  for (const [rb, edge, snr, seed] of ookCases) {
+    it(`reads soft-keyed OOK (${rb} Bd, edges ${100 * edge} % of a symbol, ${snr} dB) as ook with its rate, and not as am`, () => {
+      const fs = 8 * rb;
+      const d = decide(softOok(fs, rb, edge, snr, seed), fs);
+      expect(d.c.class, d.c.method).toBe("ook");
+      // Symbol rate within 1 % (the envelope-transition line; theory: rate = 1/T).
+      expect(Math.abs((d.c.features?.envelope?.symbolRateBd as number) - rb) / rb).toBeLessThan(0.01);
+      // The envelope sits at the noise about half of the time (random bits, off share ½ minus
+      // the edges): beyond what AM of depth ≤ 100 % allows, so the analogue decision is not am.
+      expect(d.analog.class).not.toBe("am");
+    });
+  }
+
+  const amCases = [
+    [30, 20, 8201], [60, 30, 8202], [90, 25, 8203], [100, 40, 8204], [100, 20, 8205],
+  ] as const;
+  for (const [depth, snr, seed] of amCases) {
+    it(`keeps tone AM at ${depth} % depth (${snr} dB) am: its envelope is at the noise no longer than the arcsine law allows`, () => {
+      const fs = 16000;
+      const rng = new SeededRandom(seed);
+      const iq = withSnr(frequencyShift(amFromAudio(toneAudio(0, N, fs, 700 + 600 * rng.uniform()), depth, 0.5), fs, (rng.uniform() - 0.5) * 200), fs, snr, 2000, seed);
+      const d = decide(iq, fs);
+      expect(d.c.class, d.c.method).toBe("am");
+      expect(d.af.noiseLevelShare as number).toBeLessThanOrEqual(d.af.amNoiseLevelShareMax as number);
+    });
+  }
+
+  it("keeps speech AM at 100 % depth am (a speech-like envelope reaches zero less often than a tone's)", () => {
+    for (const [snr, seed] of [[25, 8301], [35, 8302]] as const) {
+      const iq = withSnr(amFromAudio(speechLikeAudio(0, N, 16000, { peakTimeS: 0.3 }), 100, 0.5), 16000, snr, 6000, seed);
+      expect(decide(iq, 16000).c.class).toBe("am");
+    }
+  });
+
+  it("never gives am at confidence 1 when the envelope sits at the noise floor a large share of the time", () => {
+    // AM by a square wave at 100 %: the envelope is 0 half the time, which is on-off keying.
+    const fs = 16000;
+    const audio = toneAudio(0, N, fs, 500).map((v) => (v >= 0 ? 1 : -1));
+    const d = decide(withSnr(amFromAudio(audio, 100, 0.5), fs, 35, 5000, 8401), fs);
+    expect(d.analog.class === "am" && d.analog.confidence === 1).toBe(false);
+    expect(d.c.class).not.toBe("am");
+    // On-off keying with soft edges (1000 Bd, 30 % edges, 35 dB): the same envelope at the noise half the time.
+    const k = decide(softOok(fs, 1000, 0.3, 35, 8402), fs);
+    expect(k.analog.class === "am" && k.analog.confidence === 1).toBe(false);
+    expect(k.c.class).not.toBe("am");
   });
 });
