@@ -120,7 +120,7 @@ export function digitalEmission(
   const rate =
     hints.symbolRateBd !== undefined
       ? measurement(hints.symbolRateBd, "Bd", null, "given with --symbol-rate")
-      : symbolRateBlind(iq.subarray(0, Math.min(iq.length, 2 * RATE_MAX_SAMPLES)), sampleRateHz, obwHz === null ? {} : { minBd: obwHz / 1.7, maxBd: obwHz });
+      : blindRate(iq, sampleRateHz, obwHz);
   const rs = rate.value;
   if (rs === null) {
     warnings.push("no symbol rate: the constellation could not be recovered");
@@ -183,4 +183,16 @@ function ookNecessary(rate: Measurement): Measurement | null {
   const b = rate.value;
   if (b === null) return null;
   return measurement(5 * b, "Hz", rate.uncertainty === null ? null : 5 * rate.uncertainty, `47 CFR 2.202(g) A1A: B·K, K = 5, with the measured B = ${b.toFixed(1)} Bd`);
+}
+
+/**
+ * Blind symbol rate of a PSK/QAM record, searched in [OBW/1.7, OBW] (RRC signalling, module
+ * comment of docs/methods.md) and never above fs/2; not available when that range is empty.
+ */
+function blindRate(iq: Float32Array, fs: number, obwHz: number | null): Measurement {
+  const record = iq.subarray(0, Math.min(iq.length, 2 * RATE_MAX_SAMPLES));
+  if (obwHz === null) return symbolRateBlind(record, fs);
+  const maxBd = Math.min(obwHz, fs / 2);
+  if (!(maxBd > obwHz / 1.7)) return notAvailable("Bd", "symbol-rate line", `the occupied bandwidth ${obwHz.toFixed(0)} Hz fills the ${fs.toFixed(0)} S/s channel: no rate range to search`);
+  return symbolRateBlind(record, fs, { minBd: obwHz / 1.7, maxBd });
 }
