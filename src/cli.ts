@@ -110,6 +110,7 @@ function program(): Command {
   )
     .option("--channel <offset:width>", "measure the emission in this channel, e.g. 12.5k:25k (offset from the capture centre : width), default the strongest")
     .option("--nominal <Hz>", "assigned (nominal) carrier frequency, for the error in ppm; needs --center")
+    .option("--reference-ppm <u>", "uncertainty of the receiver's frequency reference, ppm (k = 2), added to the carrier's uncertainty; without it the report says it is not included")
     .option("--xdb <dB>", "level below the spectral peak for the x-dB bandwidth", "26")
     .option("--audio-bw <Hz>", "audio low-pass before FM peak deviation and AM depth (clicks of noise are removed)", "3k")
     .addOption(new Option("--mode <class>", "take the emission as this class instead of classifying it").choices(MEASURE_MODES))
@@ -127,7 +128,7 @@ function program(): Command {
       async (
         path: string,
         flags: RawCaptureFlags & {
-          channel?: string; nominal?: string; xdb: string; audioBw: string; mode?: MeasureMode; out?: string; json?: boolean;
+          channel?: string; nominal?: string; referencePpm?: string; xdb: string; audioBw: string; mode?: MeasureMode; out?: string; json?: boolean;
           order?: string; symbolRate?: string; rolloff?: string;
         },
       ) => {
@@ -136,6 +137,7 @@ function program(): Command {
           capture: captureArgs(flags),
           channel: flags.channel === undefined ? undefined : parseChannel(flags.channel),
           nominalHz: flags.nominal === undefined ? undefined : parseQuantity("--nominal", flags.nominal, { unit: "Hz", min: 0 }),
+          referencePpm: flags.referencePpm === undefined ? undefined : parseQuantity("--reference-ppm", flags.referencePpm, { unit: "none", min: 0 }),
           xDb: parseQuantity("--xdb", flags.xdb, { unit: "none", min: 0 }),
           audioBandwidthHz: parseQuantity("--audio-bw", flags.audioBw, { unit: "Hz", min: 0 }),
           mode: flags.mode,

@@ -24,6 +24,7 @@ import {
   necessaryBandwidthFmHz,
   notAvailable,
   occupiedBandwidth,
+  REFERENCE_NOT_INCLUDED,
   psdCentroidHz,
   toneFrequency,
   xDbBandwidth,
@@ -49,6 +50,9 @@ export interface MeasureEmissionOptions {
   readonly channel?: { readonly offsetHz: number; readonly widthHz: number } | undefined;
   /** Assigned frequency, Hz, for the error in ppm (needs the capture centre). */
   readonly nominalHz?: number | undefined;
+  /** Stated uncertainty of the receiver's frequency reference, ppm (k = 2): carried into the
+   * carrier's offset, frequency and ppm error (`--reference-ppm`). */
+  readonly referencePpm?: number | undefined;
   /** Level below the spectral peak for the x-dB bandwidth, dB (default 26). */
   readonly xDb?: number | undefined;
   /** Audio low-pass before FM peak deviation and AM depth, Hz (default 3000). */
@@ -111,7 +115,7 @@ export async function measureEmission(
   }
   const obw = occupiedBandwidth(psd, { lowerHz: -half, upperHz: half, noiseFloorPerHz: floor });
   const xdb = xDbBandwidth(psd, { lowerHz: -half, upperHz: half, xDb });
-  const pw = channelPower(psd, { lowerHz: -half, upperHz: half, noiseFloorPerHz: floor, occupiedHz: obw.occupiedHz.value ?? undefined });
+  const pw = channelPower(psd, { lowerHz: -half, upperHz: half, noiseFloorPerHz: floor, occupiedHz: obw.occupiedHz.value ?? undefined, occupiedUncertaintyHz: obw.occupiedHz.uncertainty });
   const features = analogFeatures(pass2.iq, fsc, psd, { noiseFloorPerHz: floor, snrDb: pw.snrDb.value, lowerHz: -half, upperHz: half });
   const analog = classifyAnalog(features);
   const decided =
@@ -149,7 +153,7 @@ export async function measureEmission(
   let ook: OokFiguresOut | null = null;
   let necessary: Measurement = notAvailable("Hz", "47 CFR 2.202(g) / ITU-R SM.1138", "no necessary-bandwidth formula applies to this class");
   if (cls === "fm") {
-    const f = fmFigures(iq, fsc, { audioBandwidthHz: audioHz });
+    const f = fmFigures(iq, fsc, { audioBandwidthHz: audioHz, noiseFloorPerHz: floor });
     carrier = f.carrierOffsetHz;
     const beta = f.modulationIndex.value;
     const fmod = f.modulatingFrequencyHz.value;
@@ -187,7 +191,7 @@ export async function measureEmission(
   } else if (cls === "cw" || cls === "am") {
     carrier = toneFrequency(iq, fsc);
     if (cls === "am") {
-      const a = amFigures(iq, fsc, { audioBandwidthHz: audioHz });
+      const a = amFigures(iq, fsc, { audioBandwidthHz: audioHz, noiseFloorPerHz: floor });
       const vc = a.carrierAmplitudeFs.value ?? 1;
       am = {
         modulationDepthPercent: a.modulationDepthPercent,
@@ -221,7 +225,7 @@ export async function measureEmission(
   // From the channel to the capture: add the channel offset, then undo the receiver clock error.
   const toCapture = (m: Measurement): Measurement =>
     m.value === null ? m : { ...m, value: correctedOffsetHz(meta, m.value + offsetHz) };
-  const carrierOffset = toCapture(carrier);
+  const carrierOffset = withReference(toCapture(carrier), meta.centerHz, options.referencePpm);
   const carrierRf =
     meta.centerHz === null || carrierOffset.value === null
       ? notAvailable("Hz", carrier.method, "the capture's centre frequency is unknown (give --center)")
@@ -346,6 +350,20 @@ function keyedFigures(
   return { class: mode, order: null, confidence: 1, method: "given with --mode", bursts: keyed };
 }
 
+/**
+ * The receiver's reference in the carrier's uncertainty: an error of u ppm moves its local
+ * oscillator, and so every reported offset, by u·1e-6·f_RF (clockCorrection.ts), f_RF ≈ the
+ * capture centre; u (k = 2) is added in quadrature. Without u, or without the centre, the
+ * method says that the reference is not included.
+ */
+function withReference(m: Measurement, centerHz: number | null, referencePpm: number | undefined): Measurement {
+  if (m.value === null) return m;
+  if (referencePpm === undefined) return { ...m, method: `${m.method}; ${REFERENCE_NOT_INCLUDED}` };
+  if (centerHz === null) return { ...m, method: `${m.method}; ${REFERENCE_NOT_INCLUDED} (the centre frequency is unknown)` };
+  const uRef = referencePpm * 1e-6 * Math.abs(centerHz + m.value);
+  return { ...m, uncertainty: Math.hypot(m.uncertainty ?? 0, uRef), method: `${m.method}; receiver reference ±${referencePpm} ppm (k = 2) included in quadrature` };
+}
+
 function checkOptions(options: MeasureEmissionOptions, meta: CaptureMeta): void {
   const fs = meta.sampleRateHz;
   const c = options.channel;
@@ -373,6 +391,9 @@ function checkOptions(options: MeasureEmissionOptions, meta: CaptureMeta): void 
   }
   if (options.rollOff !== undefined && !(options.rollOff > 0 && options.rollOff <= 1)) {
     throw new UsageError("--rolloff", `${options.rollOff} must be above 0 and at most 1`);
+  }
+  if (options.referencePpm !== undefined && !(options.referencePpm > 0 && Number.isFinite(options.referencePpm))) {
+    throw new UsageError("--reference-ppm", `${options.referencePpm} ppm must be a finite number above 0 (leave the option out when the reference is unknown)`);
   }
   if (options.xDb !== undefined && !(options.xDb > 0 && options.xDb <= 100)) {
     throw new UsageError("--xdb", `${options.xDb} dB must be between 0 and 100`);

@@ -8,12 +8,16 @@ import { dominantLine } from "./audioLine.js";
 import { filterLinearPhase, transientLength } from "./firFilter.js";
 import { lineSpectrum, linePower, meanPhaseStepHz } from "./lineSpectrum.js";
 import { measurement, notAvailable, type Measurement } from "./measurement.js";
+import { dtftAt, lineFrequencyCrbVariance, refinePeak } from "./periodogramPeak.js";
 import { minMaxBuckets } from "./minMaxTrace.js";
 
 /** Options of `amFigures`. */
 export interface AmFiguresOptions {
   /** Upper edge W of the audio band, Hz: the passband of the envelope low-pass. Default 3000 Hz. */
   readonly audioBandwidthHz?: number;
+  /** Complex noise density N0 of the channel (two-sided, FS²/Hz), e.g. the capture's noise floor;
+   * without it the envelope noise is estimated from the record itself. */
+  readonly noiseFloorPerHz?: number | undefined;
 }
 
 /** Defaults of `amFigures`: W = 3 kHz (A3E telephony, M = 3000 Hz in 47 CFR 2.202(g), REFERENCES.md §2). */
@@ -21,6 +25,14 @@ export const AM_FIGURES_DEFAULTS = { audioBandwidthHz: 3000 } as const;
 
 /** Robust extremes: the 0.1 % and 99.9 % quantiles of the filtered envelope. */
 export const AM_EXTREME_QUANTILE = 0.001;
+
+/** Audio whose dominant line holds at least this share of its power is one test tone (as in
+ * measureEmission: a sinusoid keeps > 99 % within its Hann main lobe; common practice). */
+export const AM_TONE_SHARE = 0.8;
+
+/** Standard normal 99.9 % quantile (Abramowitz & Stegun 26.2.23): how far Gaussian noise can
+ * raise the 99.9 % quantile of the envelope above the signal's own extreme. */
+const Z_999 = 3.09;
 
 const TRANSITION_SHARE = 0.25;
 const STOPBAND_DB = 60;
@@ -99,28 +111,48 @@ export function amFigures(iq: Float32Array, sampleRateHz: number, options: AmFig
     residual2 += ((env[k] as number) - (filtered[k] as number)) ** 2;
   }
   const vc = sum / (end - first);
-  const sorted = Float64Array.from(span).sort();
-  const vmin = quantile(sorted, AM_EXTREME_QUANTILE);
-  const vmax = quantile(sorted, 1 - AM_EXTREME_QUANTILE);
-  // In-band envelope noise from the out-of-band residual, assuming white envelope noise: the
-  // filter keeps about 0–1.125·W of the 0–fs/2 of a real signal.
-  const keep = 1.125 * w;
-  const sigmaIn = Math.sqrt(((residual2 / (end - first)) * keep) / Math.max(sampleRateHz / 2 - keep, 1e-300));
-  // k = 2: twice the noise on one extreme, plus the ±1e-3 passband ripple of the 60 dB design.
-  const uDepth = vc > 0 ? (100 * (2 * sigmaIn + 1e-3 * vmax)) / vc : null;
-  const depthNote = "m+ = (Vmax − Vc)/Vc, m− = (Vc − Vmin)/Vc from 0.1 %/99.9 % quantiles of the filtered envelope";
-  const carrierM = measurement(vc, "", (2 * sigmaIn) / Math.sqrt(end - first), "carrier level Vc: mean of the filtered envelope");
   if (!(vc > 0)) {
     return tooShort("the envelope is zero: no carrier", w, method);
   }
-  const mPlus = (vmax - vc) / vc;
-  const mMinus = (vc - vmin) / vc;
-  const posM = measurement(100 * mPlus, "Percent", uDepth, `positive depth (Vmax - Vc)/Vc: ${depthNote}`);
-  const negM = measurement(100 * mMinus, "Percent", uDepth, `negative depth (Vc - Vmin)/Vc: ${depthNote}`);
-  const depthM = measurement(50 * (mPlus + mMinus), "Percent", uDepth, `depth (m+ + m-)/2: ${depthNote}`,
+  // Envelope noise: the in-phase part of complex noise of density N0 has two-sided density N0/2,
+  // and after the low-pass a variance (N0/2)·fs·Σh² (Parseval). Without N0, from the
+  // out-of-band residual, taking the envelope noise as white (the filter keeps about 0–1.125·W).
+  let tapEnergy = 0;
+  for (const h of taps) tapEnergy += h * h;
+  const n0 = options.noiseFloorPerHz;
+  const keep = 1.125 * w;
+  const sigmaIn = n0 !== undefined && n0 > 0
+    ? Math.sqrt((n0 / 2) * sampleRateHz * tapEnergy)
+    : Math.sqrt(((residual2 / (end - first)) * keep) / Math.max(sampleRateHz / 2 - keep, 1e-300));
+  const carrierM = measurement(vc, "", (2 * sigmaIn) / Math.sqrt(end - first), "carrier level Vc: mean of the filtered envelope");
+  const line = dominantLine(span, sampleRateHz, AUDIO_LOW_EDGE_HZ, w);
+  const tone = line.frequencyHz !== null && line.lineShare >= AM_TONE_SHARE && line.prominenceDb >= 10
+    ? periodicEnvelope(env, sampleRateHz, line.frequencyHz, w, n0)
+    : null;
+  let depths: { mPlus: number; mMinus: number; u: number; uDepth: number; note: string };
+  if (tone !== null) {
+    depths = { ...tone, note: `one tone: ${tone.note}` };
+    method[1] = `one test tone: envelope fitted by its harmonics to W over whole periods; m+ = (Vmax - Vc)/Vc, m- = (Vc - Vmin)/Vc of the fitted period`;
+  } else {
+    const sorted = Float64Array.from(span).sort();
+    const vmin = quantile(sorted, AM_EXTREME_QUANTILE);
+    const vmax = quantile(sorted, 1 - AM_EXTREME_QUANTILE);
+    // k = 2: twice the noise on one extreme, the most the noise raises a 99.9 % quantile
+    // (z·σ, a bias), and the ±1e-3 passband ripple of the 60 dB design on the swing.
+    const u = (2 * sigmaIn + Z_999 * sigmaIn + 1e-3 * (vmax - vmin) / 2) / vc;
+    depths = {
+      mPlus: (vmax - vc) / vc, mMinus: (vc - vmin) / vc, u, uDepth: u,
+      note: "m+ = (Vmax − Vc)/Vc, m− = (Vc − Vmin)/Vc from 0.1 %/99.9 % quantiles of the filtered envelope; ± includes the noise bias of the extremes",
+    };
+  }
+  const { mPlus, mMinus } = depths;
+  const uPeak = 100 * depths.u;
+  const depthNote = depths.note;
+  const posM = measurement(100 * mPlus, "Percent", uPeak, `positive depth (Vmax - Vc)/Vc: ${depthNote}`);
+  const negM = measurement(100 * mMinus, "Percent", uPeak, `negative depth (Vc - Vmin)/Vc: ${depthNote}`);
+  const depthM = measurement(50 * (mPlus + mMinus), "Percent", 100 * depths.uDepth, `depth (m+ + m-)/2: ${depthNote}`,
     mMinus > 0.999 ? ["the envelope reaches zero: the carrier may be over-modulated (negative depth 100 %)"] : []);
 
-  const line = dominantLine(span, sampleRateHz, AUDIO_LOW_EDGE_HZ, w);
   const fmMethod = `modulating frequency: dominant line of the envelope in ${AUDIO_LOW_EDGE_HZ}-${w} Hz, Hann Welch spectrum, log-parabolic interpolation, ±0.1 bin`;
   const fmM = line.frequencyHz === null
     ? notAvailable("Hz", fmMethod, "no envelope line: too few samples")
@@ -176,4 +208,145 @@ function tooShort(reason: string, w: number, method: string[]): AmFigures {
     sidebandLevelsDbc: { upper: db, lower: db }, audioBandwidthHz: w, method,
     trace: { timeS: new Float64Array(0), minFs: new Float32Array(0), maxFs: new Float32Array(0) },
   };
+}
+
+/** Points per period at which the fitted envelope is searched for its extremes. */
+const PERIOD_POINTS = 4096;
+/** Most harmonics fitted (a test tone's distortion beyond the 32nd is negligible). */
+const MAX_HARMONICS = 32;
+
+/**
+ * The envelope of one test tone fitted by its harmonics (common practice: a synchronous average
+ * of a periodic waveform). fm is refined to the periodogram maximum (Rife & Boorstyn 1974); the
+ * record is cut to whole periods, so DC and the harmonics h·fm ≤ W are orthogonal and each
+ * c_h = (2/N)·Σ e[k]·e^(−j2πh·fm·k/fs) is their least-squares amplitude; Vmax, Vmin are the
+ * extremes of Vc + Σ Re(c_h e^(jhθ)) over one period. Noise enters only through the narrow
+ * bins at the harmonics, so the extremes carry no noise bias (unlike quantiles of the samples).
+ * Uncertainty (k = 2), linearised: each c_h varies by 2S/T per component (S the two-sided
+ * envelope noise density, T the fitted time) and Vc by S/T, independently (orthogonal fit), so
+ * var(Vmax − Vc) = 2H·S/T and var(m±) = (2H + m±²)·S/(T·Vc²); for the mean depth
+ * (Vmax − Vmin)/(2Vc), var = [Σ_h (2S/T)·|e^(jhθ+) − e^(jhθ−)|²/4 + m²·S/T]/Vc² (θ± where the
+ * extremes lie; only odd harmonics count for a pure tone). Added: the search grid
+ * (1 − cos(πH/P))·m, the amplitude loss (π·δf·T)²/6 from the fm error, the leakage between DC
+ * and the harmonics from the half-sample cut (1/N)·m. The quadrature-noise lift σ²/(2e) of
+ * the envelope detector is removed point by point (|e + n| ≈ e + n_I + n_Q²/(2e)); its next
+ * term σ⁴/(8e³) stays in the budget. Null for fewer than 4 periods.
+ */
+function periodicEnvelope(
+  env: Float64Array, fs: number, fmHz: number, w: number, n0: number | undefined,
+): { mPlus: number; mMinus: number; u: number; uDepth: number; note: string } | null {
+  const n = env.length;
+  let mean = 0;
+  for (let k = 0; k < n; k++) mean += env[k] as number;
+  mean /= n;
+  const z = new Float64Array(2 * n);
+  for (let k = 0; k < n; k++) z[2 * k] = (env[k] as number) - mean;
+  const nu = refinePeak(z, fmHz / fs, 4);
+  const periods = Math.floor(n * nu);
+  if (!(nu > 0) || periods < 4) return null;
+  const m = Math.min(n, Math.round(periods / nu));
+  const part = env.subarray(0, m);
+  let vc = 0;
+  for (let k = 0; k < m; k++) vc += part[k] as number;
+  vc /= m;
+  if (!(vc > 0)) return null;
+  const harmonics = Math.min(MAX_HARMONICS, Math.max(1, Math.floor(w / (nu * fs))));
+  const x = new Float64Array(2 * m);
+  for (let k = 0; k < m; k++) x[2 * k] = (part[k] as number) - vc;
+  const c: [number, number][] = [];
+  for (let h = 1; h <= harmonics; h++) {
+    const [re, im] = dtftAt(x, h * nu);
+    c.push([(2 * re) / m, (2 * im) / m]);
+  }
+  // The residual of the fit: the in-phase noise per sample, σ² (and, for circular noise, the
+  // quadrature noise too). |e + n| = e + n_I + n_Q²/(2e) + …: the quadrature noise lifts the
+  // envelope by σ²/(2e), most where e is small, which flattens the swing (about −0.08 % of
+  // depth at 30 dB carrier-to-noise); each point of the fitted period is corrected by it.
+  const residual = fitResidualPower(part, vc, nu, c);
+  const sigma = Math.sqrt(residual);
+  let vmax = -Infinity;
+  let vmin = Infinity;
+  let thetaMax = 0;
+  let thetaMin = 0;
+  let level = 0;
+  for (let i = 0; i < PERIOD_POINTS; i++) {
+    const theta = (2 * Math.PI * i) / PERIOD_POINTS;
+    let v = vc;
+    for (let h = 1; h <= harmonics; h++) {
+      const [re, im] = c[h - 1] as [number, number];
+      v += re * Math.cos(h * theta) - im * Math.sin(h * theta);
+    }
+    if (v > 3 * sigma) v -= residual / (2 * v);
+    level += v;
+    if (v > vmax) { vmax = v; thetaMax = theta; }
+    if (v < vmin) { vmin = v; thetaMin = theta; }
+  }
+  const vcFitted = vc;
+  vc = level / PERIOD_POINTS;
+  if (!(vc > 0)) return null;
+  // Two-sided envelope noise density S: N0/2 (in-phase part of the complex noise), or from the
+  // residual of the fit taken as white over the channel rate (then it also holds any
+  // non-tone audio, so it is on the safe side).
+  const s = n0 !== undefined && n0 > 0 ? n0 / 2 : residual / fs;
+  const t = m / fs;
+  const mPlus = (vmax - vc) / vc;
+  const mMinus = (vc - vmin) / vc;
+  // The next term of the expansion, σ⁴/(8e³), left in the envelope at its trough.
+  // Within 3σ of zero the expansion fails: there the envelope is Rayleigh-like, lifted by up
+  // to σ·√(π/2) (its mean at e = 0), which the budget then carries instead.
+  const secondOrder = vmin > 3 * sigma
+    ? (residual * residual) / (8 * vmin ** 3 * vc)
+    : (sigma * Math.sqrt(Math.PI / 2)) / Math.max(vc, 1e-3 * vcFitted);
+  const depth = Math.max(mPlus, mMinus);
+  let spread = 0;
+  for (let h = 1; h <= harmonics; h++) {
+    spread += ((Math.cos(h * thetaMax) - Math.cos(h * thetaMin)) ** 2 + (Math.sin(h * thetaMax) - Math.sin(h * thetaMin)) ** 2) / 4;
+  }
+  const a1 = Math.hypot(...(c[0] as [number, number]));
+  // Cramér–Rao spread of the refined fm (Rife & Boorstyn 1974), the line a1/2 per complex image.
+  const rho = ((a1 / 2) ** 2) / Math.max(s * fs, 1e-300);
+  const dnu = Math.sqrt(lineFrequencyCrbVariance(rho, m));
+  const fmLoss = ((Math.PI * dnu * m) ** 2) / 6;
+  const grid = 1 - Math.cos((Math.PI * harmonics) / PERIOD_POINTS);
+  // Whole periods to within half a sample: DC and harmonics leak into each other by up to 1/m.
+  const leak = 1 / m;
+  const limits = (grid + fmLoss + leak) * depth + secondOrder;
+  const u = (2 * Math.sqrt(((2 * harmonics + depth * depth) * s) / t)) / vc + limits;
+  const meanDepth = (mPlus + mMinus) / 2;
+  const uDepth = (2 * Math.sqrt(((2 * spread + meanDepth * meanDepth) * s) / t)) / vc + limits;
+  return { mPlus, mMinus, u, uDepth, note: `${harmonics} harmonic${harmonics === 1 ? "" : "s"} of ${(nu * fs).toFixed(3)} Hz over ${periods} periods` };
+}
+
+/** Mean square of e[k] − Vc − Σ Re(c_h e^(j2πhν(k − c))) over the fitted samples. */
+function fitResidualPower(part: Float64Array, vc: number, nu: number, c: readonly (readonly [number, number])[]): number {
+  const m = part.length;
+  const centre = (m - 1) / 2;
+  const stepRe = Math.cos(2 * Math.PI * nu);
+  const stepIm = Math.sin(2 * Math.PI * nu);
+  let baseRe = Math.cos(-2 * Math.PI * nu * centre);
+  let baseIm = Math.sin(-2 * Math.PI * nu * centre);
+  let sum = 0;
+  for (let k = 0; k < m; k++) {
+    let v = vc;
+    let pr = baseRe;
+    let pi = baseIm;
+    for (const [re, im] of c) {
+      v += re * pr - im * pi;
+      const t = pr * baseRe - pi * baseIm;
+      pi = pr * baseIm + pi * baseRe;
+      pr = t;
+    }
+    sum += ((part[k] as number) - v) ** 2;
+    if ((k & 1023) === 1023) {
+      // Re-anchor the rotating phasor against rounding drift.
+      const ph = 2 * Math.PI * nu * (k + 1 - centre);
+      baseRe = Math.cos(ph);
+      baseIm = Math.sin(ph);
+    } else {
+      const t = baseRe * stepRe - baseIm * stepIm;
+      baseIm = baseRe * stepIm + baseIm * stepRe;
+      baseRe = t;
+    }
+  }
+  return sum / m;
 }

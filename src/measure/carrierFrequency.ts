@@ -10,7 +10,8 @@
  * 3. Newton steps on the periodogram |X(f)|², whose maximiser is the maximum-likelihood
  *    estimate (D. C. Rife & R. R. Boorstyn, "Single-tone parameter estimation from
  *    discrete-time observations", IEEE Trans. Inf. Theory IT-20(5), 1974).
- * Uncertainty (k = 2): 2σ from the Cramér–Rao bound of the same paper,
+ * Uncertainty (k = 2): 2σ from the Cramér–Rao bound of the same paper (in quadrature with the
+ * last Newton step, the interpolation limit),
  *   var(f) = 6·fs² / ((2π)²·SNR·N(N² − 1)),   SNR = A²/σ²,
  * with A² = |X(f̂)|²/N² and σ² = mean|z|² − A² measured from the record. The bound holds above
  * the threshold region (N·SNR well above ~20, Rife & Boorstyn Fig. 1); below it a warning says so.
@@ -19,7 +20,7 @@
  * with no carrier line (common practice, e.g. the centre of a PSK or noise-like emission).
  */
 import { binFrequencyHz, equivalentDegreesOfFreedom, fftPlan, type WelchPsd } from "../dsp/index.js";
-import { refinePeak } from "./periodogramPeak.js";
+import { refinePeakStep } from "./periodogramPeak.js";
 import { measurement, notAvailable, type Measurement } from "./measurement.js";
 
 const TONE_METHOD = "FFT peak, Candan 2011 interpolation, ML (Rife-Boorstyn 1974) refinement; ±2σ Cramér-Rao bound";
@@ -68,7 +69,8 @@ export function toneFrequency(iq: Float32Array | Float64Array, sampleRateHz: num
     if (Math.abs(delta) <= 0.5) nu += delta * step;
   }
   const c = (n - 1) / 2;
-  nu = refinePeak(Float64Array.from(iq.subarray(0, 2 * n)), nu, 3);
+  const refined = refinePeakStep(Float64Array.from(iq.subarray(0, 2 * n)), nu, 3);
+  nu = refined.nu;
   const peak = dtft(iq, n, nu, c);
   const a2 = (peak[0] * peak[0] + peak[1] * peak[1]) / (n * n);
   let total = 0;
@@ -80,7 +82,12 @@ export function toneFrequency(iq: Float32Array | Float64Array, sampleRateHz: num
   const warnings: string[] = [];
   if (n * snr < 20) warnings.push(`N·SNR = ${(n * snr).toFixed(1)} is near the threshold region; the Cramér-Rao uncertainty may understate the error`);
   if (snr < 1) warnings.push(`the line holds less power than the rest of the record (SNR ${(10 * Math.log10(snr)).toFixed(1)} dB); is it an unmodulated carrier?`);
-  return measurement(nu * sampleRateHz, "Hz", 2 * Math.sqrt(crbVar), `${TONE_METHOD}, N ${n}, SNR ${(10 * Math.log10(snr)).toFixed(1)} dB`, warnings);
+  // k = 2: the Cramér–Rao spread, with the last Newton step (the interpolation limit) and the
+  // double-precision phase of the DTFT (about N·2⁻⁵³ rad over the record, far below both).
+  const interpolationHz = refined.lastStep * sampleRateHz;
+  const roundingHz = (2 ** -53 * sampleRateHz) / (2 * Math.PI);
+  const u = Math.hypot(2 * Math.sqrt(crbVar), interpolationHz) + roundingHz;
+  return measurement(nu * sampleRateHz, "Hz", u, `${TONE_METHOD} with the last Newton step, N ${n}, SNR ${(10 * Math.log10(snr)).toFixed(1)} dB`, warnings);
 }
 
 /** X(ν) = Σ z[n]·e^(−j2πν(n − c)), ν in cycles per sample. */

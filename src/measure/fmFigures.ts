@@ -18,6 +18,9 @@ export interface FmFiguresOptions {
   /** The carrier, Hz from the capture centre, when the caller knows it better than the mean
    * instantaneous frequency; deviations are then measured from it. */
   readonly carrierOffsetHz?: number;
+  /** Complex noise density N0 of the channel (two-sided, FS²/Hz), e.g. the capture's noise floor,
+   * for the noise of the filtered deviation; without it, estimated from the discriminator output. */
+  readonly noiseFloorPerHz?: number | undefined;
 }
 
 /** Defaults of `fmFigures`: W = 3 kHz, the top of land-mobile speech (47 CFR 2.202(g) F3E, M = 3000 Hz). */
@@ -29,8 +32,12 @@ const AUDIO_TRANSITION_SHARE = 0.25;
 const AUDIO_STOPBAND_DB = 60;
 /** Lower edge of the search for the modulating frequency, Hz: above the sub-audible range. */
 const AUDIO_LOW_EDGE_HZ = 300;
-/** Blocks whose means give the spread of the carrier estimate. */
-const CARRIER_BLOCKS = 16;
+/** Blocks whose mean squares give the spread of the RMS deviation. */
+const RMS_BLOCKS = 16;
+/** Bound of the discriminator's arctangent error per phase step, as a share of fs (fmDiscriminator.ts). */
+const ATAN_ERROR_SHARE = 3.2e-7;
+/** Passband ripple of the 60 dB Kaiser audio low-pass, δ = 10^(−60/20) (Kaiser 1974). */
+const AUDIO_RIPPLE = 1e-3;
 
 /** A reduced trace of the filtered deviation for a figure. */
 export interface FmTrace {
@@ -102,7 +109,7 @@ export function fmFigures(iq: Float32Array, sampleRateHz: number, options: FmFig
     `deviation after an audio low-pass 0-${w} Hz (Kaiser, ${taps.length} taps, ${AUDIO_STOPBAND_DB} dB from ${1.25 * w} Hz): discriminator clicks suppressed`,
     `modulating frequency: dominant line of the filtered audio in ${AUDIO_LOW_EDGE_HZ}-${w} Hz; index = peak/fm; Carson 2(peak + fm)`,
   ];
-  const carrier = carrierEstimate(f);
+  const carrier = carrierEstimate(f, sampleRateHz);
   const ref = options.carrierOffsetHz ?? (carrier.value as number);
   const d = new Float64Array(f.length);
   let rawPeak = 0;
@@ -128,16 +135,22 @@ export function fmFigures(iq: Float32Array, sampleRateHz: number, options: FmFig
   const pos = Math.max(0, max);
   const neg = Math.max(0, -min);
   const peak = Math.max(pos, neg);
-  const rms = Math.sqrt(sumSq / (end - first));
-  // Passband ripple of the Kaiser design is ±10^(−60/20) = ±1e-3; noise raises peaks and is not included.
-  const devNote = "filtered peak (ripple ±0.1 %; noise not included, it raises peaks)";
+  const count = end - first;
+  const rms = Math.sqrt(sumSq / count);
+  const sigmaN = deviationNoiseHz(iq, d, a, taps, sampleRateHz, first, end, options.noiseFloorPerHz);
+  // Noise raises a filtered peak by about the largest of M independent noise values,
+  // σ·√(2 ln M) with M = 2W·T (Cramér's extreme-value law); below, it can lower it by about 2σ.
+  const independent = Math.max(2, (count * 2 * w) / sampleRateHz);
+  const noisePeak = sigmaN * Math.max(2, Math.sqrt(2 * Math.log(independent)));
+  const devNote = `filtered peak; ± ripple ${AUDIO_RIPPLE * 100} %, noise (σ ${sigmaN.toPrecision(2)} Hz in the audio band, raises peaks) and the carrier's uncertainty`;
   // A measured carrier moves positive and negative deviation by its own uncertainty.
   const uRef = options.carrierOffsetHz === undefined ? (carrier.uncertainty ?? 0) : 0;
-  const devU = (x: number): number => 1e-3 * x + uRef;
+  const devU = (x: number): number => AUDIO_RIPPLE * x + noisePeak + uRef;
   const peakM = measurement(peak, "Hz", devU(peak), `peak deviation: ${devNote}`);
   const posM = measurement(pos, "Hz", devU(pos), `positive deviation: ${devNote}`);
   const negM = measurement(neg, "Hz", devU(neg), `negative deviation: ${devNote}`);
-  const rmsM = measurement(rms, "Hz", 1e-3 * rms, "RMS deviation: √mean a² of the filtered deviation");
+  const rmsM = measurement(rms, "Hz", rmsUncertainty(a, first, end, rms, sigmaN) + uRef,
+    "RMS deviation: √mean a² of the filtered deviation; ± block spread of the mean square, ripple, noise power, carrier");
   const rawWarn = rawPeak > 1.5 * peak && peak > 0
     ? [`the unfiltered peak ${rawPeak.toFixed(0)} Hz exceeds the filtered one by over 50 %: discriminator clicks or out-of-band energy`]
     : [];
@@ -167,25 +180,95 @@ export function fmFigures(iq: Float32Array, sampleRateHz: number, options: FmFig
   };
 }
 
-/** Mean instantaneous frequency with a k = 2 uncertainty of 2·s/√K from K block means. */
-function carrierEstimate(f: Float32Array): Measurement<"Hz"> {
-  const m = "carrier: mean instantaneous frequency (total phase advance / time); ± 2·s/√16 of 16 block means";
-  if (f.length < CARRIER_BLOCKS) return notAvailable("Hz", m, `only ${f.length} phase steps`);
+/**
+ * Mean instantaneous frequency f̄ = (total phase advance)/(2π·T), T = N/fs. Its error is the
+ * phase of the modulation and of the noise at the two ends, (ψ(T) − ψ(0))/(2πT), ψ the phase
+ * about the carrier's; with s_ψ the spread of ψ over the record (in cycles: the running sum of
+ * (f − f̄)/fs), the standard error is √2·s_ψ/T (for tone FM, β/(2πT): the known bound of the
+ * mean of a sinusoid over a non-integer number of periods). k = 2, plus the arctangent bound of
+ * the discriminator (3.2e-7·fs) and the float32 rounding of f (6e-8·|f̄|).
+ */
+function carrierEstimate(f: Float32Array, fs: number): Measurement<"Hz"> {
+  const m = "carrier: mean instantaneous frequency (total phase advance / time); ± 2·√2·s_ψ/T from the spread s_ψ of the phase about the carrier's (the phase at the two ends), plus the discriminator's arctangent bound";
+  if (f.length < 16) return notAvailable("Hz", m, `only ${f.length} phase steps`);
   let total = 0;
-  const means: number[] = [];
-  for (let b = 0; b < CARRIER_BLOCKS; b++) {
-    const lo = Math.floor((b * f.length) / CARRIER_BLOCKS);
-    const hi = Math.floor(((b + 1) * f.length) / CARRIER_BLOCKS);
-    let s = 0;
-    for (let i = lo; i < hi; i++) s += f[i] as number;
-    total += s;
-    means.push(s / (hi - lo));
-  }
+  for (let i = 0; i < f.length; i++) total += f[i] as number;
   const mean = total / f.length;
+  // ψ[k] = Σ_{i<k} (f[i] − f̄)/fs cycles; its mean and spread in one pass.
+  let psi = 0;
+  let s1 = 0;
+  let s2 = 0;
+  for (let i = 0; i < f.length; i++) {
+    psi += ((f[i] as number) - mean) / fs;
+    s1 += psi;
+    s2 += psi * psi;
+  }
+  const sPsi = Math.sqrt(Math.max(s2 / f.length - (s1 / f.length) ** 2, 0));
+  const t = f.length / fs;
+  const u = (2 * Math.SQRT2 * sPsi) / t + ATAN_ERROR_SHARE * fs + 6e-8 * Math.abs(mean);
+  return measurement(mean, "Hz", u, `${m}, T ${t.toPrecision(4)} s`);
+}
+
+/**
+ * RMS noise of the filtered deviation a, Hz. With N0: the discriminator turns complex noise of
+ * density N0 on a carrier of power A² into frequency noise of density f²·N0/(2A²) (two-sided;
+ * e.g. Taub & Schilling, Principles of Communication Systems, FM noise), so
+ * σ² = (N0/A²)·∫₀^{fs/2} |H(f)|²·f² df, H the audio low-pass. Without N0, the same f² law is
+ * scaled to the residual d − a, whose spectrum is (1 − H)²·f²·N0/(2A²) (it also holds any
+ * out-of-band modulation, so it errs on the safe side).
+ */
+function deviationNoiseHz(
+  iq: Float32Array, d: Float64Array, a: Float64Array, taps: Float64Array, fs: number,
+  first: number, end: number, n0: number | undefined,
+): number {
+  const points = 512;
+  let inBand = 0;
+  let outBand = 0;
+  const c = (taps.length - 1) / 2;
+  for (let j = 0; j < points; j++) {
+    const f = ((j + 0.5) / points) * (fs / 2);
+    let h = 0;
+    for (let k = 0; k < taps.length; k++) h += (taps[k] as number) * Math.cos((2 * Math.PI * f * (k - c)) / fs);
+    inBand += h * h * f * f;
+    outBand += (1 - h) ** 2 * f * f;
+  }
+  const df = fs / 2 / points;
+  inBand *= df;
+  outBand *= df;
+  if (n0 !== undefined && n0 > 0) {
+    let p = 0;
+    const n = iq.length >> 1;
+    for (let k = 0; k < 2 * n; k++) p += (iq[k] as number) ** 2;
+    const a2 = Math.max(p / n - n0 * fs, (p / n) * 1e-3);
+    return Math.sqrt((n0 / a2) * inBand);
+  }
+  let r2 = 0;
+  for (let i = first; i < end; i++) r2 += ((d[i] as number) - (a[i] as number)) ** 2;
+  r2 /= Math.max(end - first, 1);
+  return outBand > 0 ? Math.sqrt((r2 * inBand) / outBand) : 0;
+}
+
+/**
+ * k = 2 uncertainty of the RMS deviation: twice the standard error of the mean square from 16
+ * block means, over 2·rms; the ripple (1e-3 of the RMS); the noise power, which raises the
+ * mean square by σ² (a bias of σ²/(2·rms)).
+ */
+function rmsUncertainty(a: Float64Array, first: number, end: number, rms: number, sigmaN: number): number {
+  const count = end - first;
+  const means: number[] = [];
+  for (let b = 0; b < RMS_BLOCKS; b++) {
+    const lo = first + Math.floor((b * count) / RMS_BLOCKS);
+    const hi = first + Math.floor(((b + 1) * count) / RMS_BLOCKS);
+    let s = 0;
+    for (let i = lo; i < hi; i++) s += (a[i] as number) ** 2;
+    if (hi > lo) means.push(s / (hi - lo));
+  }
+  const ms = rms * rms;
   let v = 0;
-  for (const x of means) v += (x - mean) ** 2;
-  const s = Math.sqrt(v / (CARRIER_BLOCKS - 1));
-  return measurement(mean, "Hz", (2 * s) / Math.sqrt(CARRIER_BLOCKS), m);
+  for (const x of means) v += (x - ms) ** 2;
+  const se = means.length > 1 ? Math.sqrt(v / (means.length - 1) / means.length) : ms;
+  const r = Math.max(rms, 1e-300);
+  return (2 * se) / (2 * r) + AUDIO_RIPPLE * rms + (sigmaN * sigmaN) / (2 * r) + 2 * sigmaN / Math.sqrt(Math.max(count, 1));
 }
 
 /** β = peak / fm with relative uncertainties added in quadrature. */

@@ -29,7 +29,7 @@ export {
 } from "./classifyAnalog.js";
 export { bandwidthCode, emissionDesignator, type EmissionDesignator, type DesignatorClass } from "./designator.js";
 export { necessaryBandwidthFmHz, necessaryBandwidthAmHz } from "./necessaryBandwidth.js";
-export { frequencyErrorPpm, frequencyErrorPpmOf } from "./ppm.js";
+export { frequencyErrorPpm, frequencyErrorPpmOf, REFERENCE_NOT_INCLUDED } from "./ppm.js";
 export {
   normalisedCumulants, complexAbs, type Complex, type NormalisedCumulants, type NormalisedCumulantsOptions,
 } from "./cumulants.js";

@@ -27,10 +27,20 @@ export function dtftAt(z: Float64Array, nu: number): [number, number] {
  * a step is below 1e-7/N or the curvature is not negative. Returns the refined ν.
  */
 export function refinePeak(z: Float64Array, nu0: number, maxSteps = 6): number {
+  return refinePeakStep(z, nu0, maxSteps).nu;
+}
+
+/**
+ * As refinePeak, also returning the size of the last Newton step, cycles per sample (the
+ * distance still left to the maximum is of that order or less: Newton converges quadratically
+ * near it): the interpolation limit of the estimate.
+ */
+export function refinePeakStep(z: Float64Array, nu0: number, maxSteps = 6): { nu: number; lastStep: number } {
   const n = z.length >> 1;
   const c = (n - 1) / 2;
   const step = 1 / n;
   let nu = nu0;
+  let lastStep = 0.5 * step;
   for (let iter = 0; iter < maxSteps; iter++) {
     let x0r = 0, x0i = 0, x1r = 0, x1i = 0, x2r = 0, x2i = 0;
     const w = -2 * Math.PI * nu;
@@ -53,9 +63,10 @@ export function refinePeak(z: Float64Array, nu0: number, maxSteps = 6): number {
     if (!(h < 0)) break;
     const move = Math.max(-0.5 * step, Math.min(0.5 * step, -g / h));
     nu += move;
+    lastStep = Math.abs(move);
     if (Math.abs(move) < 1e-7 * step) break;
   }
-  return nu;
+  return { nu, lastStep };
 }
 
 /** Cramér–Rao variance of a line frequency, (cycles per sample)²: 6/((2π)²·ρ·N(N² − 1)),

@@ -39,3 +39,32 @@ export function alignedRows(rows: readonly (readonly [string, string])[], indent
   const width = Math.max(...rows.map(([k]) => k.length));
   return rows.map(([k, v]) => `${indent}${k.padEnd(width)}  ${v}`).join("\n");
 }
+
+/**
+ * Decimals for an uncertainty: at least `digits`, and more until it shows at least 3 units of
+ * its last digit (so a non-zero uncertainty never reads as 0 and rounding changes it by at most
+ * a sixth); two or more when it is below 1. Common practice (GUM §7.2.6: one or two significant
+ * digits, value rounded to the same place).
+ */
+export function uncertaintyDecimals(u: number, digits: number): number {
+  let d = Math.max(0, digits);
+  if (!(u > 0) || !Number.isFinite(u)) return d;
+  if (u < 1) d = Math.max(d, 2);
+  while (d < 15 && Math.round(u * 10 ** d) < 3) d++;
+  return d;
+}
+
+/** The unit an uncertainty is stated in: a level's (dBFS) or a ratio's (dBc) spread is in dB. */
+export function uncertaintyUnit(unit: string): string {
+  return unit === "dBFS" || unit === "dBc" ? "dB" : unit;
+}
+
+/** "± 0.0027 Hz": an uncertainty with at least `digits` decimals (uncertaintyDecimals). */
+export function formatUncertainty(u: number, digits: number, unit: string): string {
+  return `± ${u.toFixed(uncertaintyDecimals(u, digits))} ${uncertaintyUnit(unit)}`.trim();
+}
+
+/** An uncertainty in Hz for text: SI-scaled from 1 kHz up (formatHz), else with enough decimals. */
+export function formatHzUncertainty(u: number): string {
+  return u >= 1e3 ? formatHz(u, 3) : `${u.toFixed(uncertaintyDecimals(u, 1))} Hz`;
+}

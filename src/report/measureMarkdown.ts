@@ -6,7 +6,8 @@
  */
 import { basename } from "node:path";
 import type { MeasureReport } from "./measureReport.js";
-import { formatHz, formatRate, formatSeconds } from "./format.js";
+import { formatHz, formatRate, formatSeconds, formatUncertainty, uncertaintyDecimals } from "./format.js";
+import { REFERENCE_NOT_INCLUDED } from "../measure/index.js";
 
 interface Row {
   readonly label: string;
@@ -19,8 +20,10 @@ interface Row {
 function cell(r: MeasureReport, row: Row): [string, string, string] | null {
   if (row.value === null) return null;
   const u = r.uncertainty[row.path];
-  const value = `${row.value.toFixed(row.digits)} ${row.unit}`.trim();
-  const unc = u === undefined ? "" : `± ${u.toFixed(Math.max(row.digits, u < 1 ? 2 : 0))} ${row.unit}`.trim();
+  // The value to the same decimal place as its uncertainty (GUM §7.2.6).
+  const digits = u === undefined ? row.digits : uncertaintyDecimals(u, row.digits);
+  const value = `${row.value.toFixed(digits)} ${row.unit}`.trim();
+  const unc = u === undefined ? "" : formatUncertainty(u, row.digits, row.unit);
   return [row.label, value, unc];
 }
 
@@ -112,6 +115,7 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
     `| --- | --- | --- |`,
     ...table,
     "",
+    ...referenceNote(r),
     `## Capture health`,
     "",
     `Clipping ${q.clippingPercent.toFixed(4)} % · DC offset ${q.dcOffsetDbfs.toFixed(1)} dBFS` +
@@ -136,4 +140,15 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
     "",
   ];
   return lines.join("\n");
+}
+
+/** One line on whether the carrier's uncertainty holds the receiver's frequency reference. */
+function referenceNote(r: MeasureReport): string[] {
+  const m = r.methods["carrier.offsetHz"];
+  if (r.carrier.offsetHz === null || m === undefined) return [];
+  if (m.includes(REFERENCE_NOT_INCLUDED)) {
+    return ["Carrier uncertainties are those of the method: the receiver's frequency reference is not included (state it with --reference-ppm).", ""];
+  }
+  const given = /receiver reference ±([^ ]+) ppm/.exec(m);
+  return given === null ? [] : [`Carrier uncertainties include the receiver's frequency reference, ±${given[1]} ppm (k = 2) as stated.`, ""];
 }

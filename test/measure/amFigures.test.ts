@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { amFigures } from "../../src/measure/index.js";
 import { SeededRandom, amFromAudio, complexNoise, frequencyShift, toneAudio } from "../../src/scenario/index.js";
+import { coverage } from "./coverage.js";
 
 const FS = 62_500;
 
@@ -45,5 +46,45 @@ describe("amFigures(iq, fs) of tone AM", () => {
   it("throws RangeError for a bad rate or bandwidth", () => {
     expect(() => amFigures(new Float32Array(2000), 0)).toThrow(RangeError);
     expect(() => amFigures(new Float32Array(2000), FS, { audioBandwidthHz: 40_000 })).toThrow(RangeError);
+  });
+});
+
+describe("amFigures: the stated depth uncertainty covers the error (tone AM, 60 seeds)", () => {
+  // Tone AM, depth 30–90 %, tone 300–2500 Hz, random phases and carrier offset, 1 s at 16 kS/s,
+  // complex noise 30 dB below the carrier: the truth is the depth put in (REFERENCES.md §5,
+  // m = (Vmax − Vc)/Vc of A(1 + m cos ωt)).
+  const fs = 16_000;
+  const n = 16_000;
+  const variance = 1e-3;
+  const run = (withFloor: boolean): { err: number[]; u: number[] } => {
+    const err: number[] = [];
+    const u: number[] = [];
+    for (let seed = 1; seed <= 60; seed++) {
+      const rng = new SeededRandom(2000 + seed);
+      const m = 0.3 + 0.6 * rng.uniform();
+      const fm = 300 + 2200 * rng.uniform();
+      const ph = 2 * Math.PI * rng.uniform();
+      const fc = (rng.uniform() - 0.5) * 400;
+      const noise = new Float64Array(2 * n);
+      complexNoise(rng, noise, variance);
+      const iq = new Float32Array(2 * n);
+      for (let k = 0; k < n; k++) {
+        const t = k / fs;
+        const e = 1 + m * Math.cos(2 * Math.PI * fm * t + ph);
+        iq[2 * k] = e * Math.cos(2 * Math.PI * fc * t) + (noise[2 * k] as number);
+        iq[2 * k + 1] = e * Math.sin(2 * Math.PI * fc * t) + (noise[2 * k + 1] as number);
+      }
+      const r = amFigures(iq, fs, withFloor ? { noiseFloorPerHz: variance / fs } : {});
+      err.push((r.modulationDepthPercent.value as number) - 100 * m);
+      u.push(r.modulationDepthPercent.uncertainty as number);
+    }
+    return { err, u };
+  };
+
+  it.each([true, false])("covers ≥ 90 %, median width < 5× median error (noise floor given: %s)", (withFloor) => {
+    const { err, u } = run(withFloor);
+    const c = coverage(err, u);
+    expect(c.covered).toBeGreaterThanOrEqual(0.9);
+    expect(c.ratio).toBeLessThan(5);
   });
 });

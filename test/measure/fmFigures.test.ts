@@ -3,6 +3,7 @@ import { fmFigures } from "../../src/measure/index.js";
 import {
   SeededRandom, complexNoise, fmFromAudio, frequencyShift, speechLikeAudio, toneAudio,
 } from "../../src/scenario/index.js";
+import { coverage } from "./coverage.js";
 
 const FS = 62_500; // 2.5 × a 25 kHz channel
 const CHANNEL_HZ = 25_000;
@@ -130,5 +131,50 @@ describe("fmFigures(iq, fs, options) checks its parameters", () => {
     const iq = new Float32Array(2000);
     expect(() => fmFigures(iq, -1)).toThrow(RangeError);
     expect(() => fmFigures(iq, FS, { audioBandwidthHz: 30_000 })).toThrow(RangeError);
+  });
+});
+
+describe("fmFigures: the stated uncertainties cover the errors (tone FM, 60 seeds)", () => {
+  // Tone FM at a random carrier, tone (400–1500 Hz), deviation (2–4 kHz) and phase, 0.5 s at
+  // 48 kS/s, complex noise 30 dB below the carrier, N0 given as the pass-1 floor would be.
+  const fs = 48_000;
+  const n = 24_000;
+  const cnrDb = 30;
+  const runs: { carrierErr: number; carrierU: number; peakErr: number; peakU: number }[] = [];
+  for (let seed = 1; seed <= 60; seed++) {
+    const rng = new SeededRandom(1000 + seed);
+    const fc = (rng.uniform() - 0.5) * 1000;
+    const fm = 400 + 1100 * rng.uniform();
+    const dev = 2000 + 2000 * rng.uniform();
+    const ph = 2 * Math.PI * rng.uniform();
+    const variance = 10 ** (-cnrDb / 10);
+    const iq = new Float32Array(2 * n);
+    const noise = new Float64Array(2 * n);
+    complexNoise(rng, noise, variance);
+    for (let k = 0; k < n; k++) {
+      const t = k / fs;
+      const phase = 2 * Math.PI * fc * t + (dev / fm) * Math.sin(2 * Math.PI * fm * t + ph);
+      iq[2 * k] = Math.cos(phase) + (noise[2 * k] as number);
+      iq[2 * k + 1] = Math.sin(phase) + (noise[2 * k + 1] as number);
+    }
+    const r = fmFigures(iq, fs, { noiseFloorPerHz: variance / fs });
+    runs.push({
+      carrierErr: (r.carrierOffsetHz.value as number) - fc,
+      carrierU: r.carrierOffsetHz.uncertainty as number,
+      peakErr: (r.peakDeviationHz.value as number) - dev,
+      peakU: r.peakDeviationHz.uncertainty as number,
+    });
+  }
+
+  it("carrier offset (mean instantaneous frequency): theory, the end-phase error β(sin a − sin b)/(2πT)", () => {
+    const c = coverage(runs.map((x) => x.carrierErr), runs.map((x) => x.carrierU));
+    expect(c.covered).toBeGreaterThanOrEqual(0.9);
+    expect(c.ratio).toBeLessThan(5);
+  });
+
+  it("peak deviation: theory, noise raises the filtered peak by up to σ·√(2 ln M) (extreme-value law)", () => {
+    const c = coverage(runs.map((x) => x.peakErr), runs.map((x) => x.peakU));
+    expect(c.covered).toBeGreaterThanOrEqual(0.9);
+    expect(c.ratio).toBeLessThan(5);
   });
 });
