@@ -111,6 +111,8 @@ export function digitalFeatures(
 function rateOf(
   iq: Float32Array | Float64Array, fs: number, feature: SymbolRateFeature, minBd = fs / 1000, maxBd = fs / 2,
 ): number | null {
+  // A range made empty by a wide occupied bandwidth in a narrow channel holds no rate to find.
+  if (!(maxBd > minBd)) return null;
   return fundamentalRate(iq, fs, feature, minBd, maxBd).value;
 }
 
