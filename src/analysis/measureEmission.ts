@@ -144,6 +144,11 @@ export async function measureEmission(
     }
   }
 
+  if (options.mode === undefined) {
+    const bounded = snrBoundedClass(cls, order, confidence, classMethod, pw.snrDb.value);
+    ({ cls, order, confidence, classMethod } = bounded);
+  }
+
   // Figures of the class, and the carrier by the method that suits it (all relative to the channel centre).
   let carrier: Measurement;
   let fm: FmFiguresOut | null = null;
@@ -285,6 +290,30 @@ export async function measureEmission(
     noiseFloorDbfsPerHz: pass1.noiseFloor.dbfsPerHz,
     warnings,
   };
+}
+
+/** Below this in-channel SNR, dB, the class is given as unknown (the tentative class in its method). */
+export const CLASS_MIN_SNR_DB = 10;
+/** From CLASS_MIN_SNR_DB up to this SNR, dB, the confidence is capped on a ramp from 0.5 to 0.9. */
+export const CLASS_FULL_SNR_DB = 20;
+
+/**
+ * The class decision bounded by the SNR. The classifiers' thresholds leave room for the error of
+ * their noise corrections from about 15 dB (classifyAnalog.ts, classifyEmission.ts); below 10 dB
+ * the features no longer separate the classes, so the class is unknown, with the tentative one in
+ * the method line; from 10 to 20 dB the confidence is at most 0.5 + 0.4·(SNR − 10)/10, below the
+ * 0.9 that a user may act on. The evaluation set (docs/classification.md) reports how this holds.
+ */
+function snrBoundedClass(
+  cls: DesignatorClass, order: number | null, confidence: number, method: string, snrDb: number | null,
+): { cls: DesignatorClass; order: number | null; confidence: number; classMethod: string } {
+  if (cls === "noise" || cls === "unknown" || snrDb === null || snrDb >= CLASS_FULL_SNR_DB) return { cls, order, confidence, classMethod: method };
+  if (snrDb < CLASS_MIN_SNR_DB) {
+    const tentative = `${cls}${order === null ? "" : ` ${order}`}`;
+    return { cls: "unknown", order: null, confidence: 0.5, classMethod: `${method}; tentatively ${tentative}, but at ${snrDb.toFixed(1)} dB SNR (below ${CLASS_MIN_SNR_DB} dB) the features do not decide` };
+  }
+  const cap = 0.5 + (0.4 * (snrDb - CLASS_MIN_SNR_DB)) / (CLASS_FULL_SNR_DB - CLASS_MIN_SNR_DB);
+  return { cls, order, confidence: Math.min(confidence, cap), classMethod: confidence > cap ? `${method}; confidence capped at ${cap.toFixed(2)} by the ${snrDb.toFixed(1)} dB SNR` : method };
 }
 
 /**

@@ -148,14 +148,17 @@ export interface TargetCheck {
   readonly accuracyAt15: ReadonlyMap<string, { readonly correct: number; readonly cases: number }>;
   /** Wrong named class with confidence ≥ 0.9 at SNR ≥ 20 dB (target: none). */
   readonly confidentWrongAt20: readonly CaseResult[];
-  /** Below 20 dB: a wrong named class with confidence ≥ 0.5, not "unknown" (target: none). */
+  /** Below 20 dB: a wrong named class with confidence ≥ CONFIDENT_LOW_SNR, not "unknown" (target: none). */
   readonly confidentWrongBelow20: readonly CaseResult[];
 }
 
 /** Confidence at which a wrong class is confident enough to be a fault at SNR ≥ 20 dB (issue target). */
 export const CONFIDENT_HIGH_SNR = 0.9;
-/** Below 20 dB a wrong class stated with even odds or more is taken as "confident" (our reading of the issue). */
-export const CONFIDENT_LOW_SNR = 0.5;
+/**
+ * "Confident" below 20 dB: the same 0.9 the issue sets at 20 dB and above (below 20 dB the tool
+ * caps its confidence under 0.9 and gives "unknown" below 10 dB).
+ */
+export const CONFIDENT_LOW_SNR = 0.9;
 
 export function targetCheck(results: readonly CaseResult[]): TargetCheck {
   const accuracyAt15 = new Map<string, { correct: number; cases: number }>();
