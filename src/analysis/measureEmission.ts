@@ -96,7 +96,11 @@ export async function measureEmission(
   // The channel to extract: the user's, or the region found with room for its skirts.
   const givenByUser = options.channel !== undefined;
   const offsetHz = options.channel?.offsetHz ?? region.centerOffsetHz;
-  const widthHz = Math.min(options.channel?.widthHz ?? Math.max(region.widthHz * 1.6, 16 * pass1.psd.binWidthHz), 0.9 * fs);
+  // A found region narrower than an audio channel may be only the carrier of an AM emission
+  // whose sidebands sit under the pass-1 threshold: the channel is at least 2.5 × the audio
+  // bandwidth (two sidebands of --audio-bw with room for the filter's skirts), so they are kept.
+  const minAutoHz = Math.max(16 * pass1.psd.binWidthHz, 2.5 * audioBandwidthHz);
+  const widthHz = Math.min(options.channel?.widthHz ?? Math.max(region.widthHz * 1.6, minAutoHz), 0.9 * fs);
   const pass2 = await runPass2(source, span, { offsetHz, bandwidthHz: widthHz, maxSamples: options.maxChannelSamples, onProgress: options.onProgress });
   warnings.push(...pass2.warnings);
   const fsc = pass2.sampleRateHz;
