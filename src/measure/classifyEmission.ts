@@ -122,6 +122,16 @@ export function classifyEmission(
       return decided(best.c.class, best.c.order, m, why);
     }
   }
-  if (a.class === "am" || a.class === "fm") return { class: a.class, order: null, confidence: a.confidence, method: a.method, features: f };
+  if (a.class === "fm") {
+    // FM that nearly passed as FSK: symbol frequencies that repeat (not the strict alternation of
+    // tone FM) in clusters more distinct than a uniform spread gives (separation 2√3 ≈ 3.5) but
+    // short of the FSK rule's 6. The closer to 6, the less the FM decision is worth.
+    const sep = fr === null || fr.repeatFraction < t.fskRepeatFraction ? 0 : Math.max(fr.two.separation, fr.four.separation);
+    const doubt = 0.5 * ramp(sep, 2 * Math.sqrt(3), t.fskSeparation);
+    const confidence = Math.min(a.confidence, 1 - doubt);
+    const method = doubt > 0 ? `${a.method}; the symbol frequencies cluster (separation ${sep.toFixed(1)}, FSK needs ${t.fskSeparation}): confidence lowered` : a.method;
+    return { class: "fm", order: null, confidence, method, features: f };
+  }
+  if (a.class === "am") return { class: a.class, order: null, confidence: a.confidence, method: a.method, features: f };
   return { class: "unknown", order: null, confidence: 0.5, method: `${a.method}; no digital class fits`, features: f };
 }
