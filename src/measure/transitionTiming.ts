@@ -147,26 +147,16 @@ function gridFit(crossings: readonly number[][], fs: number, rateBd: number, tra
   const used = fits.filter((f) => f.t.length > 0).length;
   const dof = Math.max(1, transitions - used - 1);
   const sePeriod = sxx > 0 ? Math.sqrt(ss / dof / sxx) : period;
-  for (const { n, t } of fits) {
-    if (t.length === 0) continue;
-    // Intercept of this segment's grid: a boundary instant, reduced to the first period of the segment.
-    boundaries.push(mean(t) - period * mean(n));
-  }
+  // Per segment, in order: the intercept of its grid (a boundary instant), null without transitions.
+  for (const { n, t } of fits) boundaries.push(t.length === 0 ? null : mean(t) - period * mean(n));
   const rate = fs / period;
   // A floor of 1e-6 relative keeps a noiseless record from stating an uncertainty of zero.
   const u = Math.max(2 * rate * (sePeriod / period), 1e-6 * rate);
   return {
     rateBd: measurement(rate, "Bd", u, `${METHOD} (${transitions} transitions in ${used} segments)`),
-    boundaries: alignBoundaries(crossings, boundaries),
+    boundaries,
     transitions,
   };
-}
-
-/** Boundaries back in segment order (gridFit pushes them for non-empty segments only). */
-function alignBoundaries(crossings: readonly number[][], fitted: readonly (number | null)[]): (number | null)[] {
-  const values = fitted.filter((b): b is number => b !== null);
-  let k = 0;
-  return crossings.map((c) => (c.length === 0 ? null : (values[k++] ?? null)));
 }
 
 function mean(v: readonly number[]): number {

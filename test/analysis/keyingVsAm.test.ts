@@ -9,6 +9,7 @@ import { describe, expect, it } from "vitest";
 import { encodeSamples } from "../../src/capture/index.js";
 import { measureCommand } from "../../src/commands/measure.js";
 import { SeededRandom, complexNoise, frequencyShift } from "../../src/scenario/index.js";
+import { softKeyingEnvelope } from "../measure/digitalStimuli.js";
 
 const dir = mkdtempSync(join(tmpdir(), "iqaudit-keying-"));
 const fs = 250_000;
@@ -18,17 +19,9 @@ const n = 500_000; // 2 s
 function softOok(rb: number, edge: number, seed: number): Float64Array {
   const rng = new SeededRandom(seed);
   const bits = Array.from({ length: Math.ceil((n / fs) * rb) + 2 }, () => rng.integer(2));
-  const rc = (from: number, to: number, u: number): number => from + ((to - from) * (1 - Math.cos(Math.PI * u))) / 2;
+  const envelope = softKeyingEnvelope(bits, rb, fs, n, edge);
   const iq = new Float64Array(2 * n);
-  for (let k = 0; k < n; k++) {
-    const t = (k / fs) * rb;
-    const j = Math.floor(t);
-    const frac = t - j;
-    let e = bits[j] as number;
-    if (frac < edge / 2 && j > 0) e = rc(bits[j - 1] as number, e, (frac + edge / 2) / edge);
-    else if (frac > 1 - edge / 2) e = rc(e, bits[j + 1] as number, (frac - 1 + edge / 2) / edge);
-    iq[2 * k] = 0.3 * e;
-  }
+  for (let k = 0; k < n; k++) iq[2 * k] = 0.3 * (envelope[k] as number);
   return iq;
 }
 

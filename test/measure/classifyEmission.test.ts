@@ -3,7 +3,7 @@ import { amNoiseLevelShareMax, analogFeatures, classifyAnalog, classifyEmission,
 import {
   amFromAudio, CONSTELLATION_ORDER, fmFromAudio, frequencyShift, SeededRandom, speechLikeAudio, tone, toneAudio, type ConstellationKind,
 } from "../../src/scenario/index.js";
-import { fskEmission, linearEmission, ookEmission, withSnr } from "./digitalStimuli.js";
+import { fskEmission, linearEmission, ookEmission, softKeyingEnvelope, withSnr } from "./digitalStimuli.js";
 import { addNoise, psdOf } from "./emissionStimuli.js";
 
 const N = 1 << 16;
@@ -95,17 +95,11 @@ function softOok(fs: number, rb: number, edge: number, snrDb: number, seed: numb
   const rng = new SeededRandom(seed);
   const bits = Array.from({ length: Math.ceil((N / fs) * rb) + 2 }, () => rng.integer(2));
   const ph = rng.uniform() * 2 * Math.PI;
+  const envelope = softKeyingEnvelope(bits, rb, fs, N, edge);
   const iq = new Float64Array(2 * N);
-  const rc = (from: number, to: number, u: number): number => from + ((to - from) * (1 - Math.cos(Math.PI * u))) / 2;
   for (let k = 0; k < N; k++) {
-    const t = (k / fs) * rb;
-    const j = Math.floor(t);
-    const frac = t - j;
-    let e = bits[j] as number;
-    if (frac < edge / 2 && j > 0) e = rc(bits[j - 1] as number, e, (frac + edge / 2) / edge);
-    else if (frac > 1 - edge / 2) e = rc(e, bits[j + 1] as number, (frac - 1 + edge / 2) / edge);
-    iq[2 * k] = 0.5 * e * Math.cos(ph);
-    iq[2 * k + 1] = 0.5 * e * Math.sin(ph);
+    iq[2 * k] = 0.5 * (envelope[k] as number) * Math.cos(ph);
+    iq[2 * k + 1] = 0.5 * (envelope[k] as number) * Math.sin(ph);
   }
   return withSnr(iq, fs, snrDb, 5 * rb, seed + 1);
 }

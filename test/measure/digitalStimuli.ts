@@ -79,3 +79,22 @@ export function ookEmission(n: number, fs: number, rb: number, offAmplitude: num
   const sig = frequencyShift(rotate(keyed, rng.uniform() * 2 * Math.PI), fs, offsetHz);
   return { iq: noisePower > 0 ? addNoise(sig, noisePower, seed + 3000) : sig, bits };
 }
+
+/**
+ * Envelope (0 … 1) of on-off keying of `bits` at `rb` Bd over `n` samples at `fs`, with
+ * raised-cosine edges over a share `edge` of a symbol, centred on each symbol boundary.
+ */
+export function softKeyingEnvelope(bits: ArrayLike<number>, rb: number, fs: number, n: number, edge: number): Float64Array {
+  const rc = (from: number, to: number, u: number): number => from + ((to - from) * (1 - Math.cos(Math.PI * u))) / 2;
+  const out = new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    const t = (k / fs) * rb;
+    const j = Math.floor(t);
+    const frac = t - j;
+    let e = bits[j] as number;
+    if (frac < edge / 2 && j > 0) e = rc(bits[j - 1] as number, e, (frac + edge / 2) / edge);
+    else if (frac > 1 - edge / 2) e = rc(e, bits[j + 1] as number, (frac - 1 + edge / 2) / edge);
+    out[k] = e;
+  }
+  return out;
+}
