@@ -86,25 +86,30 @@ export function symbolRateBlind(iq: Float32Array | Float64Array, sampleRateHz: n
   if (kHi < kLo) throw new RangeError(`symbol-rate range ${lo}..${hi} Bd holds no bin of width ${df} Hz`);
   let kPeak = kLo;
   for (let k = kLo; k <= kHi; k++) if (power(k) > power(kPeak)) kPeak = k;
-  let bSum = 0;
-  let bCount = 0;
-  for (let k = Math.max(1, kPeak - BACKGROUND_BINS); k <= Math.min(size / 2, kPeak + BACKGROUND_BINS); k++) {
-    if (Math.abs(k - kPeak) <= 4) continue;
-    bSum += power(k);
-    bCount++;
-  }
-  const background = bSum / Math.max(1, bCount);
+  const backgroundAt = (centre: number): number => {
+    let sum = 0;
+    let count = 0;
+    for (let k = Math.max(1, centre - BACKGROUND_BINS); k <= Math.min(size / 2, centre + BACKGROUND_BINS); k++) {
+      if (Math.abs(k - centre) <= 4) continue;
+      sum += power(k);
+      count++;
+    }
+    return sum / Math.max(1, count);
+  };
   const searched = kHi - kLo + 1;
   const threshold = Math.log(searched / SYMBOL_RATE_DEFAULTS.falseAlarmProbability);
   // Rectangular keying makes a transition feature an impulse train with lines of equal height
-  // at every k·Rs: prefer the lowest sub-multiple (1/4, 1/3, 1/2) whose line also stands clear.
+  // at every k·Rs: prefer the lowest sub-multiple (1/4, 1/3, 1/2) whose line also stands clear
+  // of its own background (a feature whose continuous spectrum falls with frequency, smooth
+  // transitions, would otherwise pass a sub-multiple measured against the background at Rs).
   for (const div of [4, 3, 2]) {
     const centre = Math.round(kPeak / div);
     if (centre < kLo) continue;
     let kSub = centre;
     for (let k = centre - 2; k <= centre + 2; k++) if (power(k) > power(kSub)) kSub = k;
-    if (power(kSub) / background > threshold) { kPeak = kSub; break; }
+    if (power(kSub) / backgroundAt(kSub) > threshold) { kPeak = kSub; break; }
   }
+  const background = backgroundAt(kPeak);
   const ratio = power(kPeak) / background;
   if (!(ratio > threshold)) {
     return notAvailable("Bd", method, `no line stands clear of the ${kind} background in ${lo.toFixed(1)}..${hi.toFixed(1)} Bd (peak ${ratio.toFixed(1)}× the background, needs ${threshold.toFixed(1)}×); a roll-off near 0 gives a weak line`);

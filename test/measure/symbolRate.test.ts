@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { noiseFloor, rootRaisedCosineTaps } from "../../src/dsp/index.js";
-import { occupiedBandwidth, symbolRateBlind } from "../../src/measure/index.js";
+import { analogFeatures, classifyAnalog, classifyEmission, digitalFeatures, occupiedBandwidth, symbolRateBlind } from "../../src/measure/index.js";
 import { complexNoise, ookFromBits, qpskSymbols, SeededRandom } from "../../src/scenario/index.js";
 import { psdOf } from "./emissionStimuli.js";
 import { link } from "./linkStimuli.js";
@@ -38,6 +38,50 @@ describe("symbolRateBlind(iq, fs, options)", () => {
     const r = symbolRateBlind(iq, fs, { feature: "envelope", maxBd: 5000 });
     expect(Math.abs((r.value as number) / rb - 1)).toBeLessThan(1e-3);
   });
+
+  for (const seed of [4, 6, 7]) {
+    it(`with the frequency feature recovers the rate of Gaussian-filtered 2-FSK (BT 0.5, h 0.6), not a sub-multiple (seed ${seed})`, () => {
+      // GMSK-like frequency pulse: NRZ through a Gaussian filter of 3 dB bandwidth B = BT/T,
+      // σ = sqrt(ln 2)/(2π·BT)·T (Murota & Hirade 1981, from memory). Its smooth transitions give
+      // the transition feature a continuous spectrum that falls with frequency: a sub-multiple of
+      // the rate must stand clear of the background at its own frequency, not at Rs's.
+      const fs = 20_000;
+      const rb = 1500;
+      const sps = fs / rb;
+      const n = 10_000; // 0.5 s, 750 symbols
+      const rng = new SeededRandom(seed);
+      const symbols = Array.from({ length: Math.ceil(n / sps) + 2 }, () => 2 * rng.integer(2) - 1);
+      const nrz = Float64Array.from({ length: n }, (_, i) => symbols[Math.floor(i / sps)] as number);
+      const sigma = (Math.sqrt(Math.LN2) / (2 * Math.PI * 0.5)) * sps;
+      const half = Math.ceil(4 * sigma);
+      const kernel = Float64Array.from({ length: 2 * half + 1 }, (_, k) => Math.exp(-((k - half) ** 2) / (2 * sigma * sigma)));
+      const ksum = kernel.reduce((a, b) => a + b, 0);
+      const deviationHz = (0.6 * rb) / 2; // h = 2D/Rb = 0.6
+      const iq = new Float64Array(2 * n);
+      let phase = rng.uniform() * 2 * Math.PI;
+      for (let i = 0; i < n; i++) {
+        let f = 0;
+        for (let k = -half; k <= half; k++) f += (kernel[k + half] as number) * (nrz[Math.min(n - 1, Math.max(0, i - k))] as number);
+        phase += (2 * Math.PI * deviationHz * (f / ksum)) / fs;
+        iq[2 * i] = Math.cos(phase);
+        iq[2 * i + 1] = Math.sin(phase);
+      }
+      const noise = new Float64Array(2 * n);
+      complexNoise(new SeededRandom(seed + 1), noise, 1e-3 * (fs / (2 * rb))); // 30 dB in 2·Rb
+      for (let k = 0; k < iq.length; k++) iq[k] = (iq[k] as number) + (noise[k] as number);
+      // Through digitalFeatures, which band-limits the record to 1.2 × its 99 % band first (the
+      // transition feature of the whole band is the noise's), and on to the class.
+      const psd = psdOf(iq, 2048, fs);
+      const rate = digitalFeatures(iq, fs, psd).frequency?.symbolRateBd ?? null;
+      // Within 0.5 %: the Rife–Boorstyn refinement of a line over 750 symbols is far closer; a
+      // sub-multiple would be 50 % or 67 % off.
+      expect(rate).not.toBeNull();
+      expect(Math.abs((rate as number) / rb - 1)).toBeLessThan(5e-3);
+      const analog = classifyAnalog(analogFeatures(iq, fs, psd));
+      const c = classifyEmission(iq, fs, psd, { snrDb: 30, analog });
+      expect([c.class, c.order]).toEqual(["fsk", 2]);
+    });
+  }
 
   it("is null with a reason for white noise (no cyclostationary line)", () => {
     const iq = new Float64Array(2 * 65536);
