@@ -31,10 +31,16 @@
  *   the smallest carrier the power allows, A² = S/1.5 (S = A²(1 + m²/2), m = 1). So
  *   max = acos(1 − min(2, 3·√(1.5N/S)))/π + 0.02 (the 2 % of noise-only excursions). Speech has a
  *   higher crest factor than a tone, so it dwells at its negative peaks less and stays below it.
+ * - audioFrequencyRmsHz: the RMS of the instantaneous frequency about its mean within the audio
+ *   band |f| ≤ audioBandwidthHz of its spectrum (Hann periodogram, Parseval), with the noise's
+ *   part over the same band removed (the integral of frequencyNoiseVariance below over
+ *   [−audio, audio]); audioFrequencyNoiseRmsHz is that noise part. A carrier's frequency moves
+ *   only by noise; FM, even speech FM silent most of the time, moves it by hundreds of Hz.
+ *   Not given (null) below 10 dB S/N over the analysed band, where clicks break the noise model.
  *
  * Records longer than 2^20 samples are analysed over their first 2^20 samples.
  */
-import { noiseFloor, type WelchPsd } from "../dsp/index.js";
+import { fftPlan, noiseFloor, type WelchPsd } from "../dsp/index.js";
 import { bandLimitedRecord } from "./bandLimit.js";
 import { channelPower } from "./channelPower.js";
 import { mainLobeHalfWidthBins } from "./detectDcSpike.js";
@@ -50,6 +56,10 @@ export interface AnalogFeatures {
   readonly frequencySpread: number | null;
   readonly noiseLevelShare: number | null;
   readonly amNoiseLevelShareMax: number | null;
+  /** RMS of the instantaneous frequency within the audio band, noise part removed, Hz (module comment). */
+  readonly audioFrequencyRmsHz: number | null;
+  /** The RMS the noise alone gives the frequency in the audio band, Hz (what audioFrequencyRmsHz had removed). */
+  readonly audioFrequencyNoiseRmsHz: number | null;
 }
 
 /** Options of analogFeatures. */
@@ -60,6 +70,8 @@ export interface AnalogFeaturesOptions {
   readonly snrDb?: number | null | undefined;
   readonly lowerHz?: number | undefined;
   readonly upperHz?: number | undefined;
+  /** Audio bandwidth for audioFrequencyRmsHz, Hz; default 3000 (speech, 47 CFR 2.202(g)). */
+  readonly audioBandwidthHz?: number | undefined;
 }
 
 const MAX_SAMPLES = 1 << 18;
@@ -82,6 +94,7 @@ export function analogFeatures(
   const empty: AnalogFeatures = {
     snrDb: options.snrDb ?? null, occupiedHz: null, resolutionHz: psd.enbwHz,
     lineShare: null, envelopeExcessVariance: null, frequencySpread: null, noiseLevelShare: null, amNoiseLevelShareMax: null,
+    audioFrequencyRmsHz: null, audioFrequencyNoiseRmsHz: null,
   };
   if (!(floor > 0)) return empty;
   const obw = occupiedBandwidth(psd, { lowerHz, upperHz, noiseFloorPerHz: floor }).occupiedHz.value;
@@ -92,11 +105,13 @@ export function analogFeatures(
   const lineShare = strongestLineShare(psd, lowerHz, upperHz, floor);
   const band = bandLimited(iq, sampleRateHz, lowerHz, upperHz);
   const noisePower = floor * band.widthHz;
-  const { kappa, spreadHz, noiseShare, signalPower } = envelopeAndFrequency(band.iq, sampleRateHz, noisePower, band.lowerHz, band.upperHz);
+  const { kappa, spreadHz, noiseShare, signalPower, audioRmsHz, audioNoiseRmsHz } =
+    envelopeAndFrequency(band.iq, sampleRateHz, noisePower, band.lowerHz, band.upperHz, options.audioBandwidthHz ?? 3000);
   return {
     snrDb, occupiedHz: obw, resolutionHz: psd.enbwHz, lineShare,
     envelopeExcessVariance: kappa, frequencySpread: spreadHz === null ? null : spreadHz / obw,
     noiseLevelShare: noiseShare, amNoiseLevelShareMax: signalPower === null ? null : amNoiseLevelShareMax(signalPower, noisePower),
+    audioFrequencyRmsHz: audioRmsHz, audioFrequencyNoiseRmsHz: audioNoiseRmsHz,
   };
 }
 
@@ -134,10 +149,13 @@ export function amNoiseLevelShareMax(signalPower: number, noisePower: number): n
   return Math.acos(1 - eps) / Math.PI + 0.02;
 }
 
-interface EnvelopeAndFrequency { kappa: number | null; spreadHz: number | null; noiseShare: number | null; signalPower: number | null }
+interface EnvelopeAndFrequency {
+  kappa: number | null; spreadHz: number | null; noiseShare: number | null; signalPower: number | null;
+  audioRmsHz: number | null; audioNoiseRmsHz: number | null;
+}
 
 function envelopeAndFrequency(
-  z: Float64Array, fs: number, noisePower: number, lowerHz: number, upperHz: number,
+  z: Float64Array, fs: number, noisePower: number, lowerHz: number, upperHz: number, audioHz: number,
 ): EnvelopeAndFrequency {
   const n = z.length / 2;
   // Skip 5 % at each end, where the circular band-limiting rings.
@@ -149,6 +167,7 @@ function envelopeAndFrequency(
   let f2 = 0;
   let count = 0;
   let atNoise = 0;
+  const freq = new Float64Array(Math.max(0, to - from));
   for (let k = from; k < to; k++) {
     const i = z[2 * k] as number;
     const q = z[2 * k + 1] as number;
@@ -161,25 +180,69 @@ function envelopeAndFrequency(
     const f = (Math.atan2(q * pi - i * pq, i * pi + q * pq) * fs) / (2 * Math.PI);
     f1 += f;
     f2 += f * f;
+    freq[count] = f;
     count++;
   }
-  if (count < 8) return { kappa: null, spreadHz: null, noiseShare: null, signalPower: null };
+  const none = { kappa: null, spreadHz: null, noiseShare: null, signalPower: null, audioRmsHz: null, audioNoiseRmsHz: null };
+  if (count < 64) return none;
   m1 /= count;
   const varP = m2 / count - m1 * m1;
   const s = m1 - noisePower;
   const noiseShare = atNoise / count;
-  if (!(s > 0)) return { kappa: null, spreadHz: null, noiseShare, signalPower: null };
+  if (!(s > 0)) return { ...none, noiseShare };
   const kappa = (varP - 2 * s * noisePower - noisePower * noisePower) / (s * s);
   f1 /= count;
   const varF = f2 / count - f1 * f1;
-  const spreadHz = Math.sqrt(Math.max(0, varF - frequencyNoiseVariance(fs, noisePower / (upperHz - lowerHz), s, lowerHz - f1, upperHz - f1)));
-  return { kappa, spreadHz, noiseShare, signalPower: s };
+  const n0 = noisePower / (upperHz - lowerHz);
+  const spreadHz = Math.sqrt(Math.max(0, varF - frequencyNoiseVariance(fs, n0, s, lowerHz - f1, upperHz - f1)));
+  // The audio band: |f| ≤ audioHz of the frequency's spectrum; the noise's part over the same band.
+  const audioNoiseVar = frequencyNoiseVariance(fs, n0, s, Math.max(lowerHz - f1, -audioHz), Math.min(upperHz - f1, audioHz));
+  const audioVar = audioBandVariance(freq, f1, fs, audioHz);
+  const clickFree = s >= CLICK_FREE_SNR * noisePower;
+  const audioRmsHz = clickFree ? Math.sqrt(Math.max(0, audioVar - audioNoiseVar)) : null;
+  return { kappa, spreadHz, noiseShare, signalPower: s, audioRmsHz, audioNoiseRmsHz: clickFree ? Math.sqrt(audioNoiseVar) : null };
+}
+
+/**
+ * Below this S/N over the analysed band (10 dB) the discriminator clicks (2π phase slips, Rice's
+ * FM threshold, common practice) add a flat spectrum to the frequency that the noise model does
+ * not hold, and the audio-band movement is not given.
+ */
+const CLICK_FREE_SNR = 10;
+
+/**
+ * Variance of x (mean `mean` removed) in |f| ≤ bandHz, Hz², from a Hann-windowed periodogram
+ * normalised by the window's power (Parseval); the bins within the window's main lobe of 0 Hz
+ * (|k| ≤ 2) are left out with the mean. The window keeps the noise above the band, whose
+ * density rises as f², from leaking into it.
+ */
+function audioBandVariance(x: Float64Array, mean: number, fs: number, bandHz: number): number {
+  const n = x.length;
+  let size = 2;
+  while (size < n) size *= 2;
+  const plan = fftPlan(size);
+  const input = plan.createBuffer();
+  const out = plan.createBuffer();
+  let windowPower = 0;
+  for (let i = 0; i < n; i++) {
+    const w = 0.5 - 0.5 * Math.cos((2 * Math.PI * (i + 0.5)) / n);
+    input[2 * i] = w * ((x[i] as number) - mean);
+    windowPower += w * w;
+  }
+  plan.forward(out, input);
+  const last = Math.min(size / 2 - 1, Math.floor((bandHz * size) / fs));
+  let sum = 0;
+  for (let k = 3; k <= last; k++) {
+    for (const j of [k, size - k]) sum += (out[2 * j] as number) ** 2 + (out[2 * j + 1] as number) ** 2;
+  }
+  return sum / (size * windowPower);
 }
 
 /**
  * Variance (Hz²) that white noise of density n0 (over [a, b] Hz relative to the carrier) adds to
  * the first-difference frequency arg(z[n]z*[n−1])·fs/2π at high SNR: phase noise of two-sided
- * density n0/(2S) through |1 − e^(−j2πf/fs)|² = 4·sin²(πf/fs), scaled by (fs/2π)².
+ * density n0/(2S) through |1 − e^(−j2πf/fs)|² = 4·sin²(πf/fs), scaled by (fs/2π)². Over a part
+ * [a, b] of the frequency's own spectrum (the audio band) the same integral holds.
  */
 function frequencyNoiseVariance(fs: number, n0: number, s: number, a: number, b: number): number {
   const integral = (f: number): number => 2 * (f - (fs / (2 * Math.PI)) * Math.sin((2 * Math.PI * f) / fs));

@@ -9,9 +9,18 @@
  *    at m = 1 only near the troughs, a share acos(1 − ε)/π). An envelope at the noise level
  *    longer than that (on-off keying: the whole off share, about ½) is keying or over-modulation,
  *    not AM: the class is then unknown here and classifyEmission decides (ook).
- * 3. cw: a line holds ≥ 90 % of the power and the envelope is constant, κ < 0.01.
+ * 3. cw: a line holds ≥ 90 % of the power, the envelope is constant, κ < 0.01, and the
+ *    frequency does not move in the audio band: the RMS of the instantaneous frequency averaged
+ *    over the audio band's time scale, its noise part removed (analogFeatures.ts
+ *    `audioFrequencyRmsHz`), is under twice what the noise alone gives it and under 30 Hz.
+ *    Speech FM with pauses keeps most of its power in the carrier line (the syllables'
+ *    sidebands spread thin) but moves the frequency by hundreds of Hz; a carrier moves it only
+ *    by its noise. Twice the noise RMS is four times its variance, clear of the noise model's
+ *    error above 10 dB (common practice of detection margins; chosen from the noise model, not
+ *    fitted on the evaluation set); 30 Hz leaves room for a carrier's own drift.
  * 4. fm: constant envelope, κ < 0.01, and an instantaneous-frequency spread ξ ≥ 0.03 of the
- *    occupied bandwidth (frequency modulation moves the frequency, not the amplitude).
+ *    occupied bandwidth (frequency modulation moves the frequency, not the amplitude); or a
+ *    line with a constant envelope whose frequency moves in the audio band (rule 3).
  * 5. unknown: anything else, e.g. a PSK/QAM signal (envelope varies but no carrier line) or a
  *    noise-like emission (κ ≈ 1). Digital classes are decided elsewhere.
  *
@@ -41,6 +50,7 @@ export interface AnalogClassification {
 /** Thresholds of classifyAnalog (module comment). */
 export const CLASSIFY_ANALOG_THRESHOLDS = {
   minSnrDb: 6, envelopeKappa: 0.01, amLineShare: 0.4, cwLineShare: 0.9, fmSpread: 0.03, amNoiseShareSpan: 0.05,
+  audioMoveOverNoise: 2, audioMoveMinHz: 30,
 } as const;
 
 const ramp = (x: number, a: number, b: number): number => Math.min(1, Math.max(0, (x - a) / (b - a)));
@@ -71,6 +81,11 @@ export function classifyAnalog(features: AnalogFeatures): AnalogClassification {
   }
   const constantEnvelope = 1 - ramp(kappa, t.envelopeKappa / 2, t.envelopeKappa);
   if (kappa < t.envelopeKappa && lineShare >= t.cwLineShare) {
+    const moves = audioMovement(features);
+    if (moves !== null && moves.ratio >= t.audioMoveOverNoise && moves.rmsHz >= t.audioMoveMinHz) {
+      const c = Math.min(snrMargin, constantEnvelope, ramp(moves.ratio, t.audioMoveOverNoise, 2 * t.audioMoveOverNoise));
+      return { class: "fm", confidence: 0.5 + 0.5 * c, method: `${note}: one line, constant envelope, but the frequency moves ${moves.rmsHz.toFixed(0)} Hz RMS in the audio band (noise ${moves.noiseHz.toFixed(0)} Hz)` };
+    }
     const c = Math.min(snrMargin, constantEnvelope, ramp(lineShare, t.cwLineShare, 0.97));
     return { class: "cw", confidence: 0.5 + 0.5 * c, method: `${note}: one line, constant envelope` };
   }
@@ -79,6 +94,14 @@ export function classifyAnalog(features: AnalogFeatures): AnalogClassification {
     return { class: "fm", confidence: 0.5 + 0.5 * c, method: `${note}: constant envelope, moving frequency` };
   }
   return { class: "unknown", confidence: 0.5, method: `${note}: no analogue class fits` };
+}
+
+/** The audio-band frequency movement and its ratio to the noise's part (rule 3), or null. */
+function audioMovement(f: AnalogFeatures): { rmsHz: number; noiseHz: number; ratio: number } | null {
+  const rms = f.audioFrequencyRmsHz;
+  const noise = f.audioFrequencyNoiseRmsHz;
+  if (rms === null || noise === null) return null;
+  return { rmsHz: rms, noiseHz: noise, ratio: rms / Math.max(noise, 1e-9) };
 }
 
 function fmt(x: number | null): string {
