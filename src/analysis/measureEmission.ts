@@ -10,6 +10,7 @@ import { WelchAccumulator, type WelchPsd } from "../dsp/index.js";
 import {
   amFigures,
   analogFeatures,
+  bandLimit,
   besselNullIndex,
   channelPower,
   classifyAnalog,
@@ -105,7 +106,8 @@ export async function measureEmission(
   warnings.push(...pass2.warnings);
   const fsc = pass2.sampleRateHz;
   // The receiver's DC line, set aside above, sits at −offsetHz in the channel: remove it there too.
-  if (region.dcSpikeSkipped && Math.abs(offsetHz) < fsc / 2) removeLine(pass2.iq, fsc, -offsetHz);
+  // Outside the channel's Nyquist band, what the decimation filter let through of it sits at its alias.
+  if (region.dcSpikeSkipped) removeLine(pass2.iq, fsc, aliasHz(-offsetHz, fsc));
   const half = widthHz / 2;
   // The audio low-pass must fit below the channel's Nyquist frequency (with its transition band).
   const audioHz = Math.min(audioBandwidthHz, 0.39 * fsc);
@@ -120,11 +122,11 @@ export async function measureEmission(
   const obw = occupiedBandwidth(psd, { lowerHz: -half, upperHz: half, noiseFloorPerHz: floor });
   const xdb = xDbBandwidth(psd, { lowerHz: -half, upperHz: half, xDb });
   const pw = channelPower(psd, { lowerHz: -half, upperHz: half, noiseFloorPerHz: floor, occupiedHz: obw.occupiedHz.value ?? undefined, occupiedUncertaintyHz: obw.occupiedHz.uncertainty });
-  const features = analogFeatures(pass2.iq, fsc, psd, { noiseFloorPerHz: floor, snrDb: pw.snrDb.value, lowerHz: -half, upperHz: half });
+  const features = analogFeatures(pass2.iq, fsc, psd, { noiseFloorPerHz: floor, snrDb: pw.snrDb.value, lowerHz: -half, upperHz: half, audioBandwidthHz: audioHz });
   const analog = classifyAnalog(features);
   const decided =
     options.mode === undefined
-      ? classifyEmission(classificationRecord(pass2.iq), fsc, psd, { snrDb: pw.snrDb.value, analog, noiseFloorPerHz: floor })
+      ? classifyEmission(classificationRecord(pass2.iq, fsc, half), fsc, psd, { snrDb: pw.snrDb.value, analog, noiseFloorPerHz: floor })
       : { class: options.mode, order: options.order ?? null, confidence: 1, method: "given with --mode", features: null };
   let cls: DesignatorClass = decided.class;
   let order: number | null = options.order ?? decided.order;
@@ -133,6 +135,9 @@ export async function measureEmission(
   let iq = pass2.iq;
   // A keyed envelope (a bursty link, or on-off keying) is decided by what is inside its bursts.
   let segments: Segments | undefined;
+  // The SNR the class is bounded by: of a bursty link, while it is keyed on (the channel's SNR
+  // averages its power over the gaps between bursts, where there is nothing to classify).
+  let classSnrDb = pw.snrDb.value;
   const keyed = keyedBursts(pass2.iq, fsc);
   if (keyed !== null) {
     const inner = keyedFigures(keyed, options.mode, fsc, (x) => channelPsd(x, fsc, widthHz), floor, pw.snrDb.value, half);
@@ -143,13 +148,14 @@ export async function measureEmission(
       if (inner.bursts !== null) {
         iq = inner.bursts.iq;
         segments = inner.bursts.segments;
+        if (classSnrDb !== null) classSnrDb += 10 * Math.log10(100 / Math.max(inner.bursts.dutyCyclePercent, 1e-3));
         warnings.push(`the emission is keyed in ${inner.bursts.burstCount} bursts (on ${inner.bursts.dutyCyclePercent.toFixed(1)} % of the time); its modulation was measured inside the bursts`);
       }
     }
   }
 
   if (options.mode === undefined) {
-    const bounded = snrBoundedClass(cls, order, confidence, classMethod, pw.snrDb.value);
+    const bounded = snrBoundedClass(cls, order, confidence, classMethod, classSnrDb);
     ({ cls, order, confidence, classMethod } = bounded);
   }
 
@@ -306,7 +312,8 @@ export const CLASS_FULL_SNR_DB = 20;
  * their noise corrections from about 15 dB (classifyAnalog.ts, classifyEmission.ts); below 10 dB
  * the features no longer separate the classes, so the class is unknown, with the tentative one in
  * the method line; from 10 to 20 dB the confidence is at most 0.5 + 0.4·(SNR − 10)/10, below the
- * 0.9 that a user may act on. The evaluation set (docs/classification.md) reports how this holds.
+ * 0.9 that a user may act on. The SNR is the channel's, or of a bursty link the SNR while keyed on
+ * (the channel's plus 10·log10(100/duty %)). The evaluation set (docs/classification.md) reports how this holds.
  */
 function snrBoundedClass(
   cls: DesignatorClass, order: number | null, confidence: number, method: string, snrDb: number | null,
@@ -457,8 +464,15 @@ function channelPsd(iq: Float32Array, fs: number, widthHz: number): WelchPsd | n
  * usual channel rates; thousands of symbols of any data link). The digital features (cumulants,
  * keying histograms, the symbol-rate line) are then bounded in time and memory whatever the span.
  */
-function classificationRecord(iq: Float32Array): Float32Array {
-  return iq.subarray(0, Math.min(iq.length, 2 * CLASSIFY_MAX_SAMPLES));
+/** The first CLASSIFY_MAX_SAMPLES of the channel, limited to the channel's width (the decimation filter's transition band and what aliases into it left out). */
+function classificationRecord(iq: Float32Array, fs: number, halfWidthHz: number): Float32Array {
+  const head = iq.subarray(0, Math.min(iq.length, 2 * CLASSIFY_MAX_SAMPLES));
+  return halfWidthHz < fs / 2 ? bandLimit(head, fs, -halfWidthHz, halfWidthHz) : head;
+}
+
+/** f folded into [−fs/2, fs/2). */
+function aliasHz(f: number, fs: number): number {
+  return f - fs * Math.floor(f / fs + 0.5);
 }
 const CLASSIFY_MAX_SAMPLES = 1 << 16;
 

@@ -105,6 +105,19 @@ describe("a cu8 capture whose DC offset is 10 dB stronger than its carrier (zero
     expect(Math.abs((report.carrier.offsetHz as number) - 25_000)).toBeLessThan(0.01 * rs);
   });
 
+  it("measures 8PSK at +70 kHz, where the DC line falls outside the decimated channel's Nyquist band: class psk, order 8", async () => {
+    // The channel of a 20 kBd emission is decimated to a rate whose Nyquist band ends short of
+    // 0 Hz; what the decimation filter lets through of the DC line folds into the channel's
+    // edges and must not be read as part of the emission (Swami & Sadler 2000 cumulants; theory).
+    const rs = 20_000;
+    const symbols = randomSymbols(new SeededRandom(7109), "8psk", Math.ceil((n / fs) * rs) + 16);
+    const x = frequencyShift(rrcPsk(symbols, 0, n, { symbolRateBd: rs, sampleRateHz: fs, rollOff: 0.25, amplitude: CARRIER_AMPLITUDE }), fs, 70_000);
+    const p = cu8Capture("8psk", withDcAndNoise(x, 0.5, 7110));
+    const { report } = await measureCommand(p, { capture: {} });
+    expect([report.modulation.class, report.modulation.order]).toEqual(["psk", 8]);
+    expect(Math.abs((report.digital.symbolRateBd as number) - rs) / rs).toBeLessThan(1e-3);
+  });
+
   it("with --channel holding 0 Hz and a carrier at +1 201 Hz, measures the carrier and says the DC spike was set aside", async () => {
     const f0 = 1201;
     const p = cu8Capture("cw_channel", withDcAndNoise(cw(f0), 0.5, 7107));

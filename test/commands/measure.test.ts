@@ -204,7 +204,7 @@ describe("measureCommand on digital emissions", () => {
    * 0.2 ms raised-cosine edges, each burst starting its symbol clock afresh at a fractional
    * sample, at −30 kHz + 137 Hz. The truth is the keying it was made from (closed form).
    */
-  function burstyFskCapture(): string {
+  function burstyFskCapture(noisePower = 1e-6, name = "burstyfsk"): string {
     const rb = 4800;
     const schedule = { periodS: 0.125, onS: 0.01, firstStartS: 0.0173, rampS: 0.0002 };
     const rng = new SeededRandom(77);
@@ -220,8 +220,8 @@ describe("measureCommand on digital emissions", () => {
     const { iq } = fmFromAudio(levels, fs, 1800, 0, 0.3);
     const gate = burstGate(0, n, fs, schedule);
     for (let k = 0; k < n; k++) { iq[2 * k] = (iq[2 * k] as number) * (gate[k] as number); iq[2 * k + 1] = (iq[2 * k + 1] as number) * (gate[k] as number); }
-    const p = join(dir, "burstyfsk_250ksps.cf32");
-    writeFileSync(p, encodeSamples("cf32_le", withNoise(frequencyShift(iq, fs, -30_000 + 137), 1e-6, 8)));
+    const p = join(dir, `${name}_250ksps.cf32`);
+    writeFileSync(p, encodeSamples("cf32_le", withNoise(frequencyShift(iq, fs, -30_000 + 137), noisePower, 8)));
     return p;
   }
 
@@ -241,5 +241,19 @@ describe("measureCommand on digital emissions", () => {
       expect(Math.abs((report.carrier.offsetHz as number) - (-30_000 + 137))).toBeLessThan(20);
       expect(report.warnings.join(" ")).toMatch(/bursts/);
     }
+  }, 60_000);
+
+  it("bounds the class of a bursty link by its SNR while keyed on, not by the channel's average over the gaps", async () => {
+    // 25 dB in the bursts over 2D + Rs = 8.4 kHz (47 CFR 2.202(g) F1D with K = 1): noise density
+    // 0.09/(10^2.5 · 8400) per Hz over the 250 kHz band. At 8 % duty the channel's SNR averaged
+    // over the record is 11 dB lower (10·log10(1/0.08)), about 14 dB, where measure caps a
+    // confidence under 0.9; while keyed on it is 25 dB, over the 20 dB from which it does not.
+    const n0 = 0.09 / (10 ** 2.5 * 8400);
+    const p = burstyFskCapture(n0 * fs, "burstyfsk25");
+    const { report } = await measureCommand(p, { capture: {} });
+    expect([report.modulation.class, report.modulation.order]).toEqual(["fsk", 2]);
+    expect(report.power.snrDb as number).toBeLessThan(20);
+    expect(report.methods["modulation.class"]).not.toMatch(/capped/);
+    expect(report.modulation.confidence).toBeGreaterThanOrEqual(0.9);
   }, 60_000);
 });
