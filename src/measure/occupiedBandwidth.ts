@@ -10,10 +10,25 @@
  * floor·√(1/(πν)) of residual (ν the Welch degrees of freedom); keep the range to the emission
  * and a margin (locateEmission) so that this stays small beside β/2.
  *
- * Uncertainty (k = 2): each edge ±√((Δf/2)² + (RBW/2)²), the bin quantisation combined with
- * the smearing of the window's resolution bandwidth RBW = ENBW; the width ±√(Δf² + RBW²).
+ * Uncertainty (k = 2), per edge: the first two in quadrature, plus the third:
+ * - the bin quantisation Δf/2;
+ * - the window's smearing: RBW/2 (RBW = ENBW) in a continuous spectrum; where the edge falls in
+ *   the main lobe of a line (a local maximum within the lobe's half-width h bins standing over
+ *   4× the level h + 2 bins either side of it), h·Δf: the window spreads the line's power over
+ *   its lobe, and the edge lies wherever in it the 0.5 % is reached, while the line itself has
+ *   no width;
+ * - the noise floor: the edge moved by raising the floor two standard deviations of a bin's
+ *   Welch estimate, 2·floor·√(1.33/M), above which a noise-only bin rises with probability
+ *   about 2 %, so that most of the noise's clamped residual is gone (M segments; 1.33 =
+ *   1 + 2·0.167, the correlation of Hann segments overlapped by half, Welch 1967, from memory). At low SNR the clamped noise
+ *   residual over many bins is comparable to the 0.5 % tails and pushes the edges out; this
+ *   term then says so instead of a width of a few bins. It is a one-sided bias, left uncorrected,
+ *   so it is added to the quadrature sum of the others, not in quadrature.
+ * The width's uncertainty: the edges' quantisation and smearing in quadrature, plus the width's
+ * own change under the raised floor (both edges move together, so their shifts add).
  */
 import { binFrequencyHz, type WelchPsd } from "../dsp/index.js";
+import { mainLobeHalfWidthBins } from "./detectDcSpike.js";
 import { measurement, notAvailable, type Measurement } from "./measurement.js";
 
 /** Options of occupiedBandwidth. */
@@ -58,22 +73,62 @@ export function occupiedBandwidth(psd: WelchPsd, options: OccupiedBandwidthOptio
     const na = notAvailable("Hz", method, "no power above the noise floor in the range");
     return { occupiedHz: na, lowerEdgeHz: na, upperEdgeHz: na };
   }
-  const tail = ((1 - fraction) / 2) * total;
-  const lowerEdge = crossing(e, tail, binFrequencyHz(psd, first) - df / 2, df);
-  // The upper edge: the same search from the top, mirrored.
-  const reversed = e.slice().reverse();
-  const upperEdge = -crossing(reversed, tail, -(binFrequencyHz(psd, last) + df / 2), df);
+  const startHz = binFrequencyHz(psd, first) - df / 2;
+  const [lowerEdge, upperEdge] = edges(e, fraction, startHz, df);
+  // The floor raised by two standard deviations of a bin's estimate (module comment).
+  const raised = noiseFloorPerHz * (1 + 2 * Math.sqrt(1.33 / Math.max(1, psd.segmentCount)));
+  const [lowerRaised, upperRaised] = edgesAbove(psd, first, last, raised, fraction, startHz) ?? [lowerEdge, upperEdge];
   const rbw = psd.enbwHz;
-  const uEdge = Math.hypot(df / 2, rbw / 2);
+  const lobe = mainLobeHalfWidthBins(psd);
+  const smear = (edgeHz: number): number => (inLineLobe(e, Math.floor((edgeHz - startHz) / df), lobe) ? lobe * df : rbw / 2);
+  // The floor's part is a one-sided bias (the clamped residual only widens), not corrected, so it
+  // is added to the expanded uncertainty rather than in quadrature (common practice for an
+  // uncorrected systematic effect).
+  const uLower = Math.hypot(df / 2, smear(lowerEdge)) + Math.abs(lowerRaised - lowerEdge);
+  const uUpper = Math.hypot(df / 2, smear(upperEdge)) + Math.abs(upperRaised - upperEdge);
   const warnings: string[] = [];
   if (psd.enbwHz > 0.05 * (upperEdge - lowerEdge)) {
     warnings.push(`resolution ${rbw.toFixed(2)} Hz exceeds 5 % of the occupied bandwidth; the figure is widened by the window`);
   }
   return {
-    occupiedHz: measurement(upperEdge - lowerEdge, "Hz", Math.hypot(df, rbw), method, warnings),
-    lowerEdgeHz: measurement(lowerEdge, "Hz", uEdge, method, warnings),
-    upperEdgeHz: measurement(upperEdge, "Hz", uEdge, method, warnings),
+    // The floor moves both edges the same way (outwards for a floor read low): its part of the width adds, not in quadrature.
+    occupiedHz: measurement(upperEdge - lowerEdge, "Hz", Math.hypot(df / 2, df / 2, smear(lowerEdge), smear(upperEdge)) + Math.abs((upperRaised - lowerRaised) - (upperEdge - lowerEdge)), method, warnings),
+    lowerEdgeHz: measurement(lowerEdge, "Hz", uLower, method, warnings),
+    upperEdgeHz: measurement(upperEdge, "Hz", uUpper, method, warnings),
   };
+}
+
+/** The lower and upper β edges of the bin powers e (bins of width df from startHz). */
+function edges(e: Float64Array, fraction: number, startHz: number, df: number): [number, number] {
+  let total = 0;
+  for (const v of e) total += v;
+  const tail = ((1 - fraction) / 2) * total;
+  const lower = crossing(e, tail, startHz, df);
+  // The upper edge: the same search from the top, mirrored.
+  const upper = -crossing(e.slice().reverse(), tail, -(startHz + e.length * df), df);
+  return [lower, upper];
+}
+
+/** The edges with `floor` removed instead, or null when nothing stands above it. */
+function edgesAbove(psd: WelchPsd, first: number, last: number, floor: number, fraction: number, startHz: number): [number, number] | null {
+  const df = psd.binWidthHz;
+  const e = new Float64Array(Math.max(0, last - first + 1));
+  let total = 0;
+  for (let i = first; i <= last; i++) {
+    const v = Math.max(0, (psd.densityPerHz[i] as number) - floor) * df;
+    e[i - first] = v;
+    total += v;
+  }
+  return total > 0 ? edges(e, fraction, startHz, df) : null;
+}
+
+/** Whether bin k lies in the main lobe (half-width h bins) of a line: a local maximum standing over 4× the level h + 2 bins either side. */
+function inLineLobe(e: Float64Array, k: number, h: number): boolean {
+  let m = -1;
+  for (let i = Math.max(0, k - h); i <= Math.min(e.length - 1, k + h); i++) if (m < 0 || (e[i] as number) > (e[m] as number)) m = i;
+  if (m < 0 || !((e[m] as number) > 0)) return false;
+  const side = Math.max(e[m - h - 2] ?? 0, e[m + h + 2] ?? 0);
+  return (e[m] as number) > 4 * side;
 }
 
 /** The frequency where the cumulative sum of e (bins of width df from startHz) reaches `target`. */

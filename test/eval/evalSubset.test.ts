@@ -26,10 +26,7 @@ describe("evaluation subset: classification targets (issue 7)", () => {
     expect(results.filter((r) => r.error !== null).map((r) => `${r.id}: ${r.error}`)).toEqual([]);
   });
 
-  // Unmet on 2026-12-02 (docs/classification.md, issue 7 stays open): fsk2-burst-01 (cu8, DC
-  // 10.9 dB above the emission, 16.7 dB) and ook-01 (cu8, DC 3.6 dB above, 17.3 dB) read unknown.
-  // Kept with its assertions, skipped until the classifier meets it.
-  it.skip("classifies at least 95 % correctly in every class at in-band SNR ≥ 15 dB (issue target)", () => {
+  it("classifies at least 95 % correctly in every class at in-band SNR ≥ 15 dB (issue target)", () => {
     const t = targetCheck(results);
     const below: string[] = [];
     for (const [label, a] of t.accuracyAt15) {
