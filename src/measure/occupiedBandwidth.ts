@@ -62,13 +62,7 @@ export function occupiedBandwidth(psd: WelchPsd, options: OccupiedBandwidthOptio
   const method = `${(100 * fraction).toFixed(1)} % power bandwidth of PSD minus noise floor (ITU-R SM.328 beta/2 each side), RBW ${psd.enbwHz.toFixed(2)} Hz`;
   const first = Math.max(0, Math.ceil((lowerHz / df) + psd.fftLength / 2 - 1e-9));
   const last = Math.min(psd.fftLength - 1, Math.floor((upperHz / df) + psd.fftLength / 2 + 1e-9));
-  const e = new Float64Array(Math.max(0, last - first + 1));
-  let total = 0;
-  for (let i = first; i <= last; i++) {
-    const v = Math.max(0, (psd.densityPerHz[i] as number) - noiseFloorPerHz) * df;
-    e[i - first] = v;
-    total += v;
-  }
+  const { e, total } = binPowers(psd, first, last, noiseFloorPerHz);
   if (!(total > 0)) {
     const na = notAvailable("Hz", method, "no power above the noise floor in the range");
     return { occupiedHz: na, lowerEdgeHz: na, upperEdgeHz: na };
@@ -109,17 +103,22 @@ function edges(e: Float64Array, fraction: number, startHz: number, df: number): 
   return [lower, upper];
 }
 
-/** The edges with `floor` removed instead, or null when nothing stands above it. */
-function edgesAbove(psd: WelchPsd, first: number, last: number, floor: number, fraction: number, startHz: number): [number, number] | null {
-  const df = psd.binWidthHz;
+/** Power above `floor` of bins first..last (PSD minus floor, clamped at 0, times the bin width) and their sum. */
+function binPowers(psd: WelchPsd, first: number, last: number, floor: number): { e: Float64Array; total: number } {
   const e = new Float64Array(Math.max(0, last - first + 1));
   let total = 0;
   for (let i = first; i <= last; i++) {
-    const v = Math.max(0, (psd.densityPerHz[i] as number) - floor) * df;
+    const v = Math.max(0, (psd.densityPerHz[i] as number) - floor) * psd.binWidthHz;
     e[i - first] = v;
     total += v;
   }
-  return total > 0 ? edges(e, fraction, startHz, df) : null;
+  return { e, total };
+}
+
+/** The edges with `floor` removed instead, or null when nothing stands above it. */
+function edgesAbove(psd: WelchPsd, first: number, last: number, floor: number, fraction: number, startHz: number): [number, number] | null {
+  const { e, total } = binPowers(psd, first, last, floor);
+  return total > 0 ? edges(e, fraction, startHz, psd.binWidthHz) : null;
 }
 
 /** Whether bin k lies in the main lobe (half-width h bins) of a line: a local maximum standing over 4× the level h + 2 bins either side. */
