@@ -142,10 +142,14 @@ export function fmFigures(iq: Float32Array, sampleRateHz: number, options: FmFig
   // σ·√(2 ln M) with M = 2W·T (Cramér's extreme-value law); below, it can lower it by about 2σ.
   const independent = Math.max(2, (count * 2 * w) / sampleRateHz);
   const noisePeak = sigmaN * Math.max(2, Math.sqrt(2 * Math.log(independent)));
-  const devNote = `filtered peak; ± ripple ${AUDIO_RIPPLE * 100} %, noise (σ ${sigmaN.toPrecision(2)} Hz in the audio band, raises peaks) and the carrier's uncertainty`;
+  // Discriminator clicks (2π phase slips) each raise the filtered deviation by up to 2W.
+  const clicks = clickChance(iq, a, first, end, sampleRateHz, options.noiseFloorPerHz);
+  const clickU = clicks >= CLICK_CHANCE ? 2 * w : 0;
+  const clickNote = clickU > 0 ? `, discriminator clicks (chance ${(100 * Math.min(clicks, 1)).toFixed(0)} % of at least one in the record, Rice's rate; each raises the peak by up to 2W = ${clickU.toFixed(0)} Hz)` : "";
+  const devNote = `filtered peak; ± ripple ${AUDIO_RIPPLE * 100} %, noise (σ ${sigmaN.toPrecision(2)} Hz in the audio band, raises peaks)${clickNote} and the carrier's uncertainty`;
   // A measured carrier moves positive and negative deviation by its own uncertainty.
   const uRef = options.carrierOffsetHz === undefined ? (carrier.uncertainty ?? 0) : 0;
-  const devU = (x: number): number => AUDIO_RIPPLE * x + noisePeak + uRef;
+  const devU = (x: number): number => AUDIO_RIPPLE * x + noisePeak + clickU + uRef;
   const peakM = measurement(peak, "Hz", devU(peak), `peak deviation: ${devNote}`);
   const posM = measurement(pos, "Hz", devU(pos), `positive deviation: ${devNote}`);
   const negM = measurement(neg, "Hz", devU(neg), `negative deviation: ${devNote}`);
@@ -246,6 +250,38 @@ function deviationNoiseHz(
   for (let i = first; i < end; i++) r2 += ((d[i] as number) - (a[i] as number)) ** 2;
   r2 /= Math.max(end - first, 1);
   return outBand > 0 ? Math.sqrt((r2 * inBand) / outBand) : 0;
+}
+
+/** A chance of at least one click in the record from which the peak's uncertainty carries one (5 %). */
+const CLICK_CHANCE = 0.05;
+
+/**
+ * The chance of at least one discriminator click in the record, 1 − e^(−λT), from Rice's click
+ * rate for FM in white noise, λ = (B/(2√3))·erfc(√ρ) + mean|δf|·e^(−ρ) (S. O. Rice, "Noise in FM
+ * receivers", 1963; as in Taub & Schilling, Principles of Communication Systems, from memory):
+ * ρ the carrier-to-noise ratio over the record's band B = fs (white noise of density n0 over
+ * the channel's sample rate, as deviationNoiseHz takes it, which errs towards more clicks) and
+ * mean|δf| the mean absolute filtered deviation. 0 when the noise density is not known.
+ */
+function clickChance(iq: Float32Array, a: Float64Array, first: number, end: number, fs: number, n0: number | undefined): number {
+  if (n0 === undefined || !(n0 > 0) || end <= first) return 0;
+  const n = iq.length >> 1;
+  let p = 0;
+  for (let k = 0; k < 2 * n; k++) p += (iq[k] as number) ** 2;
+  const noise = n0 * fs;
+  const rho = Math.max(p / n - noise, 0) / noise;
+  let meanAbs = 0;
+  for (let i = first; i < end; i++) meanAbs += Math.abs(a[i] as number);
+  meanAbs /= end - first;
+  const rate = (fs / (2 * Math.sqrt(3))) * erfc(Math.sqrt(rho)) + meanAbs * Math.exp(-rho);
+  return 1 - Math.exp(-rate * (n / fs));
+}
+
+/** erfc(x) for x ≥ 0, A&S 7.1.26 (absolute error ≤ 1.5e-7 on erf). */
+function erfc(x: number): number {
+  const t = 1 / (1 + 0.3275911 * x);
+  const poly = t * (0.254829592 + t * (-0.284496736 + t * (1.421413741 + t * (-1.453152027 + t * 1.061405429))));
+  return poly * Math.exp(-x * x);
 }
 
 /**
