@@ -139,10 +139,16 @@ export function amFigures(iq: Float32Array, sampleRateHz: number, options: AmFig
     const vmax = quantile(sorted, 1 - AM_EXTREME_QUANTILE);
     // k = 2: twice the noise on one extreme, the most the noise raises a 99.9 % quantile
     // (z·σ, a bias), and the ±1e-3 passband ripple of the 60 dB design on the swing.
-    const u = (2 * sigmaIn + Z_999 * sigmaIn + 1e-3 * (vmax - vmin) / 2) / vc;
+    const base = (2 * sigmaIn + Z_999 * sigmaIn + 1e-3 * (vmax - vmin) / 2) / vc;
+    // The quantiles miss the few peaks of speech: the true extreme lies up to the absolute
+    // extreme, less the most the noise lifts a maximum of M = 2W·T independent values,
+    // σ·√(2 ln M) (Cramér's extreme-value law). One-sided, so added, not in quadrature.
+    const lift = sigmaIn * Math.sqrt(2 * Math.log(Math.max(2, (2 * w * (end - first)) / sampleRateHz)));
+    const gapPlus = Math.max(0, (sorted[sorted.length - 1] as number) - vmax - lift) / vc;
+    const gapMinus = Math.max(0, vmin - (sorted[0] as number) - lift) / vc;
     depths = {
-      mPlus: (vmax - vc) / vc, mMinus: (vc - vmin) / vc, u, uDepth: u,
-      note: "m+ = (Vmax − Vc)/Vc, m− = (Vc − Vmin)/Vc from 0.1 %/99.9 % quantiles of the filtered envelope; ± includes the noise bias of the extremes",
+      mPlus: (vmax - vc) / vc, mMinus: (vc - vmin) / vc, u: base + Math.max(gapPlus, gapMinus), uDepth: base + (gapPlus + gapMinus) / 2,
+      note: "m+ = (Vmax − Vc)/Vc, m− = (Vc − Vmin)/Vc from 0.1 %/99.9 % quantiles of the filtered envelope; ± includes the noise bias of the extremes and how far the absolute extremes (less the noise's lift) lie beyond the quantiles",
     };
   }
   const { mPlus, mMinus } = depths;
