@@ -9,7 +9,8 @@ import { isIqauditError, UsageError } from "./errors.js";
 import { TOOL_VERSION } from "./version.js";
 import { addCaptureOptions, captureArgs, type RawCaptureFlags } from "./cli/captureOptions.js";
 import { parseCount, parseFftLength, parseQuantity } from "./cli/quantity.js";
-import { createProgress } from "./cli/progress.js";
+import { clearProgressLine, createProgress } from "./cli/progress.js";
+import { oneLine } from "./cli/errorLine.js";
 import { CAUTIONS } from "./cli/cautions.js";
 import { inspectCommand } from "./commands/inspect.js";
 import { spectrogramCommand, SPECTROGRAM_DEFAULTS } from "./commands/spectrogram.js";
@@ -24,7 +25,8 @@ interface GlobalFlags {
 }
 
 function warn(lines: readonly string[]): void {
-  for (const line of lines) process.stderr.write(`iqaudit: warning: ${line}\n`);
+  if (lines.length > 0) clearProgressLine();
+  for (const line of lines) process.stderr.write(`${oneLine(`iqaudit: warning: ${line}`)}\n`);
 }
 
 function program(): Command {
@@ -229,18 +231,19 @@ export async function main(argv: readonly string[]): Promise<number> {
     await cli.parseAsync(argv as string[], { from: "node" });
     return 0;
   } catch (e) {
+    clearProgressLine();
     if (e instanceof CommanderError) {
       if (e.exitCode === 0) return 0; // --help, --version
-      process.stderr.write(`${usageLine(e)}\n`);
+      process.stderr.write(`${oneLine(usageLine(e))}\n`);
       return 2;
     }
     if (isIqauditError(e)) {
-      process.stderr.write(`iqaudit: ${e.message.split("\n")[0]}\n`);
+      process.stderr.write(`${oneLine(`iqaudit: ${e.message}`)}\n`);
       return 2;
     }
     const line = systemErrorLine(e);
     if (line !== null) {
-      process.stderr.write(`${line}\n`);
+      process.stderr.write(`${oneLine(line)}\n`);
       return 2;
     }
     process.stderr.write(`iqaudit: internal error (a bug; please report it with this trace):\n${e instanceof Error ? (e.stack ?? e.message) : String(e)}\n`);

@@ -133,6 +133,14 @@ export function digitalEmission(
       : obwHz === null
         ? "default 0.35"
         : `from the 99 % OBW over the symbol rate, ${(obwHz / rs).toFixed(4)}, through the RRC table (raised-cosine spectrum)`;
+  const unusable = recoveryRefusal(rs, sampleRateHz, iq.length >> 1);
+  if (unusable !== null) {
+    warnings.push(`no constellation: ${unusable}`);
+    return { digital: emptyDigital(rate, unusable), fsk: null, ook: null, carrierHz: null, order, necessaryBandwidthHz: null, warnings };
+  }
+  if (hints.symbolRateBd !== undefined && obwHz !== null && !(obwHz / rs >= 0.8 && obwHz / rs <= 2.2)) {
+    warnings.push(`the given symbol rate ${rs} Bd does not fit the occupied bandwidth ${obwHz.toFixed(0)} Hz (RRC signalling has 1.0-1.7 × Rs, REFERENCES.md §3): check --symbol-rate`);
+  }
   const kind = order === null ? undefined : cls === "psk" ? PSK_KIND[order] : QAM_KIND[order];
   const r = recoverSymbols(iq, sampleRateHz, { symbolRateBd: rs, rollOff, ...(kind === undefined ? {} : { order: { kind } }) });
   warnings.push(...r.warnings);
@@ -183,6 +191,22 @@ function ookNecessary(rate: Measurement): Measurement | null {
   const b = rate.value;
   if (b === null) return null;
   return measurement(5 * b, "Hz", rate.uncertainty === null ? null : 5 * rate.uncertainty, `47 CFR 2.202(g) A1A: B·K, K = 5, with the measured B = ${b.toFixed(1)} Bd`);
+}
+
+/** Most samples a symbol the recovery works at: its RRC filters span 24 symbols, so its cost grows with it. */
+const MAX_SAMPLES_PER_SYMBOL = 256;
+
+/**
+ * Why the constellation cannot be recovered at `rateBd` from `count` channel samples at `fs`,
+ * or null: at least 2 and at most MAX_SAMPLES_PER_SYMBOL samples a symbol, at least 64 symbols.
+ */
+function recoveryRefusal(rateBd: number, fs: number, count: number): string | null {
+  const sps = fs / rateBd;
+  if (sps < 2) return `${rateBd} Bd needs at least 2 samples a symbol, and the ${fs.toFixed(0)} S/s channel gives ${sps.toFixed(2)}: widen --channel`;
+  if (sps > MAX_SAMPLES_PER_SYMBOL) return `${rateBd} Bd is under 1/${MAX_SAMPLES_PER_SYMBOL} of the ${fs.toFixed(0)} S/s channel: narrow --channel to the emission`;
+  const symbols = Math.floor(count / sps);
+  if (symbols < 64) return `the channel holds ${symbols} symbols at ${rateBd} Bd; at least 64 are needed`;
+  return null;
 }
 
 /**

@@ -80,9 +80,13 @@ export async function measureEmission(
   const fs = meta.sampleRateHz;
   const xDb = options.xDb ?? MEASURE_DEFAULTS.xDb;
   const audioBandwidthHz = options.audioBandwidthHz ?? MEASURE_DEFAULTS.audioBandwidthHz;
-  checkOptions(options, meta);
-  const floor = pass1.noiseFloor.densityPerHz;
+  checkMeasureOptions(options, meta, span);
   const warnings: string[] = [];
+  const floor = usableFloor(pass1.psd, pass1.noiseFloor.densityPerHz);
+  if (floor === null) {
+    warnings.push("the analysed span holds no signal (every sample is zero, or was not finite and read as 0): nothing to measure");
+    return noEmission(pass1, { present: false, levelDbfs: null, widthHz: null }, xDb, options.nominalHz ?? null, warnings);
+  }
   const dcOffsetDbfs = pass1.health.dcOffsetDbfs;
   const dc = detectDcSpike(pass1.psd, floor, { dcOffsetDbfs });
   const dcSpike = { present: dc.present, levelDbfs: dc.present ? dc.levelDbfs : null, widthHz: dc.present ? dc.widthHz : null };
@@ -404,11 +408,32 @@ function withReference(m: Measurement, centerHz: number | null, referencePpm: nu
   return { ...m, uncertainty: Math.hypot(m.uncertainty ?? 0, uRef), method: `${m.method}; receiver reference ±${referencePpm} ppm (k = 2) included in quadrature` };
 }
 
-function checkOptions(options: MeasureEmissionOptions, meta: CaptureMeta): void {
+/**
+ * The narrowest channel measured, Hz: four bins of the default pass-1 spectrum (fs/1024, so that
+ * the emission can be located in it) and 400/T over an analysed span of T s (a channel sampled at
+ * about 2.5 × its width then holds at least 1000 samples for its spectrum and figures).
+ */
+export function minimumChannelWidthHz(sampleRateHz: number, spanS: number): number {
+  return Math.max(sampleRateHz / 1024, 400 / spanS);
+}
+
+/** Fewest symbols a span must hold for a symbol rate to be measured or used (pskQamRecovery.ts needs 64). */
+export const MIN_SYMBOLS = 64;
+
+/**
+ * Checks the options against the capture's metadata and the span, before any sample is read
+ * (measureCommand calls it right after opening the capture): UsageError naming the option.
+ */
+export function checkMeasureOptions(options: MeasureEmissionOptions, meta: CaptureMeta, span: SampleSpan): void {
   const fs = meta.sampleRateHz;
+  const spanS = span.sampleCount / fs;
   const c = options.channel;
   if (c !== undefined) {
     if (!(c.widthHz > 0)) throw new UsageError("--channel", `width ${c.widthHz} Hz must be greater than 0`);
+    const least = minimumChannelWidthHz(fs, spanS);
+    if (c.widthHz < least) {
+      throw new UsageError("--channel", `width ${c.widthHz.toPrecision(3)} Hz is narrower than the ${least.toFixed(0)} Hz this capture allows (the larger of fs/1024 and 400/T for ${spanS.toFixed(2)} s analysed)`);
+    }
     if (c.offsetHz - c.widthHz / 2 < -fs / 2 || c.offsetHz + c.widthHz / 2 > fs / 2) {
       throw new UsageError(
         "--channel",
@@ -426,8 +451,14 @@ function checkOptions(options: MeasureEmissionOptions, meta: CaptureMeta): void 
       throw new UsageError("--order", `${options.order} is not an order of ${options.mode ?? "any digital class"} (${ok === undefined ? "no order applies" : ok.join(", ")})`);
     }
   }
-  if (options.symbolRateBd !== undefined && !(options.symbolRateBd > 0 && options.symbolRateBd < fs)) {
-    throw new UsageError("--symbol-rate", `${options.symbolRateBd} Bd must be above 0 and below the sample rate ${fs}`);
+  const rs = options.symbolRateBd;
+  if (rs !== undefined) {
+    if (!(rs > 0 && rs <= fs / 2)) {
+      throw new UsageError("--symbol-rate", `${rs} Bd must be above 0 and at most half the sample rate, ${fs / 2} Bd (2 samples a symbol)`);
+    }
+    if (rs * spanS < MIN_SYMBOLS) {
+      throw new UsageError("--symbol-rate", `${rs} Bd gives ${(rs * spanS).toFixed(1)} symbols in the ${spanS.toFixed(2)} s analysed; at least ${MIN_SYMBOLS} are needed (at least ${(MIN_SYMBOLS / spanS).toFixed(1)} Bd)`);
+    }
   }
   if (options.rollOff !== undefined && !(options.rollOff > 0 && options.rollOff <= 1)) {
     throw new UsageError("--rolloff", `${options.rollOff} must be above 0 and at most 1`);
@@ -486,6 +517,18 @@ function numericFeatures(features: object): Record<string, number> {
   const out: Record<string, number> = {};
   for (const [k, v] of Object.entries(features)) if (typeof v === "number" && Number.isFinite(v)) out[k] = v;
   return out;
+}
+
+/**
+ * The noise density to measure against: the pass-1 floor, or where that is 0 (a capture with no
+ * noise, e.g. mostly zero samples) the smallest positive PSD bin, so that a signal in it is still
+ * measured. Null when the PSD holds no power at all.
+ */
+function usableFloor(psd: WelchPsd, floor: number): number | null {
+  if (floor > 0 && Number.isFinite(floor)) return floor;
+  let least = Infinity;
+  for (const v of psd.densityPerHz) if (v > 0 && v < least) least = v;
+  return Number.isFinite(least) ? least : null;
 }
 
 function noEmission(

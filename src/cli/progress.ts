@@ -9,11 +9,25 @@ export interface Progress {
   done(): void;
 }
 
+/** The progress line on the terminal now, if any: an error or warning printed later clears it first. */
+let active: { clear(): void } | null = null;
+
+/** Clears a progress line left on the terminal (before an error line, so the two are not glued). */
+export function clearProgressLine(): void {
+  active?.clear();
+  active = null;
+}
+
 export function createProgress(label: string, enabled: boolean, stream: NodeJS.WriteStream = process.stderr): Progress {
   if (!enabled || !stream.isTTY) return { onProgress: undefined, done: () => undefined };
   const started = Date.now();
   let lastDraw = 0;
   let drawn = false;
+  const clear = (): void => {
+    if (drawn) stream.write("\r\x1b[K");
+    drawn = false;
+  };
+  active = { clear };
   return {
     onProgress(doneBytes, totalBytes) {
       const now = Date.now();
@@ -33,7 +47,8 @@ export function createProgress(label: string, enabled: boolean, stream: NodeJS.W
       drawn = true;
     },
     done() {
-      if (drawn) stream.write("\r\x1b[K");
+      clear();
+      if (active?.clear === clear) active = null;
     },
   };
 }

@@ -24,7 +24,8 @@ export async function analyseCapture(path: string, args: CaptureArgs, pass1: Pas
 }
 
 /**
- * Opens the capture, runs pass 1 over the span, and hands the result and the still-open source
+ * Opens the capture, checks the command's options against its metadata (`check`, before any
+ * sample is read), runs pass 1 over the span, and hands the result and the still-open source
  * to `use` (for a pass 2); the source is closed afterwards, whatever happens.
  */
 export async function withAnalysedCapture<T>(
@@ -32,11 +33,14 @@ export async function withAnalysedCapture<T>(
   args: CaptureArgs,
   pass1: Pass1Options,
   use: (a: AnalysedCapture, source: CaptureSource) => Promise<T>,
+  check?: (meta: CaptureMeta, span: SampleSpan) => void,
 ): Promise<T> {
   const source = await openCapture(path, args);
   try {
     const meta = source.meta;
     const { span, warnings: spanWarnings } = resolveSpan(meta, args.startS, args.durationS);
+    // The command's options against the metadata, before a multi-GB pass 1 is spent on a typo.
+    check?.(meta, span);
     const result = await runPass1(meta, span, pass1);
     const warnings = [...meta.warnings, ...spanWarnings, ...result.warnings, ...healthWarnings(result)];
     return await use({ meta, span, pass1: result, warnings }, source);

@@ -5,7 +5,7 @@
  */
 import { basename, join } from "node:path";
 import type { Pass1Options } from "../analysis/index.js";
-import { measureEmission, type MeasureEmissionOptions } from "../analysis/measureEmission.js";
+import { checkMeasureOptions, measureEmission, type MeasureEmissionOptions } from "../analysis/measureEmission.js";
 import type { EmissionFigures } from "../analysis/emissionFigures.js";
 import { withAnalysedCapture, type AnalysedCapture, type CaptureArgs } from "./analyseCapture.js";
 import { buildMeasureReport, type MeasureReport } from "../report/measureReport.js";
@@ -34,7 +34,7 @@ export async function measureCommand(path: string, options: MeasureOptions): Pro
     const report = buildMeasureReport(a.meta, a.span, a.pass1, figures, a.warnings);
     const files = options.outDir === undefined ? [] : await writeReportFolder(options.outDir, a, figures, report);
     return { report, files };
-  });
+  }, (meta, span) => checkMeasureOptions(options, meta, span));
 }
 
 /** Figures first, then report.md, then report.json: a folder with report.json in it is complete. */

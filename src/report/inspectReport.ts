@@ -100,7 +100,10 @@ export function qualitySection(pass1: Pass1Result): QualitySection {
 }
 
 function dcSpikeDbfs(pass1: Pass1Result): number | null {
-  const spike = detectDcSpike(pass1.psd, pass1.noiseFloor.densityPerHz);
+  // A capture with no noise (all zero) has no floor to stand a spike above.
+  const floor = pass1.noiseFloor.densityPerHz;
+  if (!(floor > 0) || !Number.isFinite(floor)) return null;
+  const spike = detectDcSpike(pass1.psd, floor);
   return spike.present ? spike.levelDbfs : null;
 }
 
@@ -142,6 +145,11 @@ export function buildInspectReport(
       peak: "highest PSD bin, parabolic interpolation of dB values; power = density × ENBW",
       sha256: "SHA-256 of the whole data file as stored, computed during the same read",
     },
-    warnings,
+    warnings: noSignal(pass1) ? [...warnings, "the analysed span holds no signal (every sample is zero, or was not finite and read as 0): its health figures and strongest line mean nothing"] : warnings,
   };
+}
+
+/** Whether the PSD holds no power at all (an all-zero span). */
+function noSignal(pass1: Pass1Result): boolean {
+  return !pass1.psd.densityPerHz.some((v) => v > 0);
 }
