@@ -73,6 +73,9 @@ export function emissionDesignator(input: { readonly class: DesignatorClass; rea
   if (symbols === null) {
     return { designator: null, reason: input.class === "noise" ? "no emission above the noise" : "the modulation class is not known" };
   }
-  if (input.bandwidthHz === null || !(input.bandwidthHz > 0)) return { designator: null, reason: "no bandwidth to state" };
-  return { designator: bandwidthCode(input.bandwidthHz) + symbols, reason: null };
+  const hz = input.bandwidthHz;
+  if (hz === null || !(hz > 0)) return { designator: null, reason: "no bandwidth to state" };
+  // The code states 0.001 Hz … 999 GHz (RR Appendix 1): outside it, no designator, and why.
+  if (!Number.isFinite(hz) || hz < 0.0005 || hz >= 999.5e9) return { designator: null, reason: `the bandwidth ${hz} Hz is outside the 0.001 Hz to 999 GHz a designator can state` };
+  return { designator: bandwidthCode(hz) + symbols, reason: null };
 }

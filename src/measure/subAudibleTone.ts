@@ -34,6 +34,8 @@ export interface SubAudibleTone {
 
 const SEARCH_LO_HZ = 60;
 const SEARCH_HI_HZ = 270;
+/** Stopband edge of the tone low-pass, Hz (its passband ends at SEARCH_HI_HZ). */
+const TONE_STOPBAND_HZ = 400;
 const NOISE_LO_HZ = 50;
 const NOISE_HI_HZ = 300;
 const CLEAR_DB = 20;
@@ -65,11 +67,13 @@ export function subAudibleTone(
   if ((end - first) / sampleRateHz < MIN_DURATION_S) {
     return none(`no sub-audible tone search: under ${MIN_DURATION_S} s of audio`);
   }
+  // The tone low-pass reaches its stopband at 400 Hz: the audio must be sampled above 800 Hz.
+  if (sampleRateHz <= 2 * TONE_STOPBAND_HZ) return none(`no sub-audible tone search: the ${sampleRateHz} S/s audio does not reach the filter's ${TONE_STOPBAND_HZ} Hz stopband`);
   const d1 = Math.max(1, Math.floor(sampleRateHz / (2.5 * audioBandwidthHz)));
   const fs1 = sampleRateHz / d1;
   const stage1 = new Float64Array(Math.floor((end - first) / d1));
   for (let i = 0; i < stage1.length; i++) stage1[i] = audioHz[first + i * d1] as number;
-  const taps = designLowpass({ cutoffHz: 270, transitionHz: 130, stopbandDb: 80, sampleRateHz: fs1 });
+  const taps = designLowpass({ cutoffHz: SEARCH_HI_HZ, transitionHz: TONE_STOPBAND_HZ - SEARCH_HI_HZ, stopbandDb: 80, sampleRateHz: fs1 });
   const low = filterLinearPhase(stage1, taps);
   const skip = transientLength(taps);
   const d2 = Math.max(1, Math.floor(fs1 / 1000));

@@ -84,3 +84,16 @@ describe("emissionDesignator(digital classes)", () => {
     expect(emissionDesignator({ class: "ook", bandwidthHz: 2400 }).designator).toBe("2K40A1D");
   });
 });
+
+describe("emissionDesignator outside what the code can state", () => {
+  it("gives no designator, with the reason, below 0.001 Hz, from 999 GHz and for a non-finite bandwidth (RR Appendix 1: H001 … 999G)", () => {
+    for (const hz of [1e-300, 0.0001, 1e12, 1e300, Number.POSITIVE_INFINITY]) {
+      const d = emissionDesignator({ class: "fm", bandwidthHz: hz });
+      expect(d.designator, String(hz)).toBeNull();
+      expect(d.reason).toMatch(/outside the 0.001 Hz to 999 GHz/);
+    }
+    // The edges of the range still give a code: 0.001 Hz is H001, 999 GHz is 999G.
+    expect(emissionDesignator({ class: "cw", bandwidthHz: 0.001 }).designator).toBe("H001N0N");
+    expect(emissionDesignator({ class: "cw", bandwidthHz: 999e9 }).designator).toBe("999GN0N");
+  });
+});

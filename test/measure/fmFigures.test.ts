@@ -126,6 +126,19 @@ describe("fmFigures(iq, fs): sub-audible tone", () => {
   });
 });
 
+describe("fmFigures at an audio-rate capture too slow for the sub-audible tone filter", () => {
+  it("at 600 S/s (W = 200 Hz) gives the deviation and no tone, with the reason, instead of throwing", () => {
+    // The tone low-pass has its stopband at 400 Hz, which a 600 S/s record cannot reach (Nyquist 300 Hz).
+    const fs = 600;
+    const n = 3 * fs;
+    const r = fmFigures(Float32Array.from(fmFromAudio(toneAudio(0, n, fs, 50), fs, 100).iq), fs, { audioBandwidthHz: 200 });
+    expect(r.toneHz.value).toBeNull();
+    expect(r.toneHz.warnings.join(" ")).toMatch(/400 Hz stopband/);
+    // Tone FM of 100 Hz deviation, noiseless: the peak within 1 % (closed form of the modulator).
+    expect(relErr(r.peakDeviationHz.value, 100)).toBeLessThan(0.01);
+  });
+});
+
 describe("fmFigures(iq, fs, options) checks its parameters", () => {
   it("throws RangeError for a bad rate or an audio bandwidth too wide for the rate", () => {
     const iq = new Float32Array(2000);
