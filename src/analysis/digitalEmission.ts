@@ -12,6 +12,7 @@ import {
   measurement,
   ookFigures,
   recoverSymbols,
+  recoveryFloorPercent,
   symbolRateBlind,
   type Measurement,
   type Segments,
@@ -144,12 +145,13 @@ export function digitalEmission(
   const kind = order === null ? undefined : cls === "psk" ? PSK_KIND[order] : QAM_KIND[order];
   const r = recoverSymbols(iq, sampleRateHz, { symbolRateBd: rs, rollOff, ...(kind === undefined ? {} : { order: { kind } }) });
   warnings.push(...r.warnings);
+  const floored = withRecoveryFloor(r.evm.evmRmsPercent, r.evm.merDb, recoveryFloorPercent(r.kind, sampleRateHz / rs, rollOff, r.evm.symbols));
   return {
     digital: {
       symbolRateBd: rate,
-      evmRmsPercent: r.evm.evmRmsPercent,
+      evmRmsPercent: floored.evm,
       evmPeakPercent: r.evm.evmPeakPercent,
-      merDb: r.evm.merDb,
+      merDb: floored.mer,
       iqOriginOffsetDb: r.evm.iqOriginOffsetDb,
       frequencyErrorHz: r.frequencyErrorHz,
       symbols: r.evm.symbols,
@@ -191,6 +193,23 @@ function ookNecessary(rate: Measurement): Measurement | null {
   const b = rate.value;
   if (b === null) return null;
   return measurement(5 * b, "Hz", rate.uncertainty === null ? null : 5 * rate.uncertainty, `47 CFR 2.202(g) A1A: B·K, K = 5, with the measured B = ${b.toFixed(1)} Bd`);
+}
+
+/**
+ * EVM and MER with the recovery's own floor F (recoveryFloor.ts) in their uncertainty: the EVM
+ * read is high by at most F²/(2·EVM), the MER low by 20·log10(1 + F²/(2·EVM²)) dB (one-sided,
+ * added to the statistical part).
+ */
+function withRecoveryFloor(evm: Measurement, mer: Measurement, floorPercent: number): { evm: Measurement; mer: Measurement } {
+  const e = evm.value;
+  if (e === null || !(e > 0) || !(floorPercent > 0)) return { evm, mer };
+  const bias = (floorPercent * floorPercent) / (2 * e);
+  const merBias = 20 * Math.log10(1 + bias / e);
+  const note = `; + the recovery's own floor ${floorPercent.toFixed(3)} % (EVM of an ideal record of the same rate, roll-off and constellation), which raises the EVM by up to F²/(2·EVM)`;
+  return {
+    evm: { ...evm, uncertainty: (evm.uncertainty ?? 0) + bias, method: evm.method + note },
+    mer: { ...mer, uncertainty: mer.uncertainty === null ? null : mer.uncertainty + merBias, method: mer.method + note },
+  };
 }
 
 /** Most samples a symbol the recovery works at: its RRC filters span 24 symbols, so its cost grows with it. */

@@ -132,31 +132,55 @@ export function derotate(symbols: Float64Array, cyclesPerSymbol: number, phaseRa
  * Gains from the loop noise bandwidth B_L·T and damping ζ = 1/√2:
  * θn = B_L·T/(ζ + 1/(4ζ)), K1 = 4ζθn/(1 + 2ζθn + θn²), K2 = 4θn²/(1 + 2ζθn + θn²)
  * (M. Rice, Digital Communications: A Discrete-Time Approach, 2009, Appendix C; from memory,
- * with unit detector and oscillator gains). Returns the tracked symbols and the mean residual
- * frequency the integrator settled on, cycles per symbol.
+ * with unit detector and oscillator gains). Run backward over the record first, then forward
+ * from the state the backward pass ends in. Returns the tracked symbols and the residual
+ * frequency, cycles per symbol: the least-squares slope of the forward pass's phase.
  */
 export function trackPhase(symbols: Float64Array, kind: ConstellationKind, loopBandwidth: number): { symbols: Float64Array; residualCyclesPerSymbol: number } {
   const zeta = Math.SQRT1_2;
   const thn = loopBandwidth / (zeta + 1 / (4 * zeta));
   const den = 1 + 2 * zeta * thn + thn * thn;
-  const k1 = (4 * zeta * thn) / den;
-  const k2 = (4 * thn * thn) / den;
+  const gains = { k1: (4 * zeta * thn) / den, k2: (4 * thn * thn) / den };
   const count = symbols.length >> 1;
+  // A first pass from the last symbol back to the first leaves the loop converged at the start
+  // (its phase there, and the opposite of the frequency): the forward pass then starts locked,
+  // instead of spending its first ~1/B_L symbols pulling in from the block estimate's residue.
+  const back = runLoop(symbols, kind, gains, count - 1, -1, 0, 0, null);
   const out = new Float64Array(symbols.length);
+  const forward = runLoop(symbols, kind, gains, 0, 1, back.phi, -back.integ, out);
+  return { symbols: out, residualCyclesPerSymbol: forward.slope / (2 * Math.PI) };
+}
+
+/** The loop of trackPhase from symbol `start` in steps of `step` (±1), writing the corrected symbols into `out` if given. */
+function runLoop(
+  symbols: Float64Array, kind: ConstellationKind, gains: { k1: number; k2: number }, start: number, step: 1 | -1,
+  phi0: number, integ0: number, out: Float64Array | null,
+): { phi: number; integ: number; slope: number } {
+  const count = symbols.length >> 1;
   const pts = constellation(kind);
   const m = pts.length >> 1;
-  let phi = 0;
-  let integ = 0;
-  let integSum = 0;
-  for (let k = 0; k < count; k++) {
+  let phi = phi0;
+  let integ = integ0;
+  // Least-squares slope of the loop's phase over the symbols: the residual frequency.
+  let sn1 = 0;
+  let sp = 0;
+  let snp = 0;
+  let snn = 0;
+  for (let n = 0, k = start; n < count; n++, k += step) {
+    sn1 += n;
+    sp += phi;
+    snp += n * phi;
+    snn += n * n;
     const cs = Math.cos(-phi);
     const sn = Math.sin(-phi);
     const i = symbols[2 * k] as number;
     const q = symbols[2 * k + 1] as number;
     const ri = i * cs - q * sn;
     const rq = i * sn + q * cs;
-    out[2 * k] = ri;
-    out[2 * k + 1] = rq;
+    if (out !== null) {
+      out[2 * k] = ri;
+      out[2 * k + 1] = rq;
+    }
     let best = 0;
     let bestD = Infinity;
     for (let j = 0; j < m; j++) {
@@ -166,9 +190,9 @@ export function trackPhase(symbols: Float64Array, kind: ConstellationKind, loopB
     const di = pts[2 * best] as number;
     const dq = pts[2 * best + 1] as number;
     const e = Math.atan2(rq * di - ri * dq, ri * di + rq * dq);
-    integ += k2 * e;
-    integSum += integ;
-    phi += k1 * e + integ;
+    integ += gains.k2 * e;
+    phi += gains.k1 * e + integ;
   }
-  return { symbols: out, residualCyclesPerSymbol: integSum / Math.max(1, count) / (2 * Math.PI) };
+  const den = count * snn - sn1 * sn1;
+  return { phi, integ, slope: den > 0 ? (step * (count * snp - sn1 * sp)) / den : 0 };
 }

@@ -47,6 +47,7 @@ export {
   evmFigures, decideSymbols, normaliseGain, bestConstellation, type EvmFigures, type ConstellationChoice,
 } from "./evm.js";
 export { recoverSymbols, RECOVERY_DEFAULTS, type Recovered, type RecoveryOptions } from "./pskQamRecovery.js";
+export { recoveryFloorPercent } from "./recoveryFloor.js";
 export { fskFigures, FSK_FIGURES_DEFAULTS, type FskFigures, type FskFiguresOptions, type FrequencyHistogram } from "./fskFigures.js";
 export { ookFigures, type OokFigures, type OokFiguresOptions } from "./ookFigures.js";
 export { burstSamples, type Bursts } from "./burstGate.js";

@@ -42,7 +42,7 @@ export interface RecoveryOptions {
 
 /** Defaults of recoverSymbols. */
 export const RECOVERY_DEFAULTS = {
-  rollOff: 0.35, maxSymbols: 1 << 15, spanSymbols: 16, blockSymbols: 256, loopBandwidth: 0.002,
+  rollOff: 0.35, maxSymbols: 1 << 15, spanSymbols: 32, blockSymbols: 256, loopBandwidth: 0.002,
   kinds: CONSTELLATION_KINDS,
 } as const;
 

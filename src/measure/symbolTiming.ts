@@ -8,9 +8,10 @@
  * has the argument −2π·τ/sps, τ the instant of the symbol centres modulo sps (samples). Oerder &
  * Meyr use an integer 4 samples per symbol; evaluating the coefficient at the real ratio sps
  * makes the estimator work for any sps above about 2 + α (|y|² occupies |f| ≤ (1+α)Rs and must
- * not alias onto Rs). Per block the estimates are unwrapped into a continuous τ(k), linearly
- * interpolated between block centres, so a small symbol-rate error (a slow drift of τ) is
- * followed without symbol slips.
+ * not alias onto Rs). Per block the estimates are unwrapped into a continuous τ(k), and a
+ * least-squares straight line through them gives the instants: a small symbol-rate error (a
+ * linear drift of τ) is followed without symbol slips, and the self-noise of each block's
+ * estimate is averaged over the whole record.
  */
 
 /**
@@ -44,21 +45,41 @@ export function symbolInstants(power: Float64Array, samplesPerSymbol: number, bl
     }
     tau[b] = t;
   }
+  const line = timingLine(tau, blockSymbols);
   const times: number[] = [];
-  const first = Math.ceil((margin - (tau[0] as number)) / sps) - 1;
+  const first = Math.ceil((margin - line.at(0)) / sps) - 1;
   for (let k = Math.max(first, -1); ; k++) {
-    const blockPos = (k * sps) / blockSamples - 0.5;
-    let tk: number;
-    if (blocks === 1 || blockPos <= 0) tk = tau[0] as number;
-    else if (blockPos >= blocks - 1) tk = tau[blocks - 1] as number;
-    else {
-      const b = Math.floor(blockPos);
-      const f = blockPos - b;
-      tk = (1 - f) * (tau[b] as number) + f * (tau[b + 1] as number);
-    }
-    const t = k * sps + tk;
+    const t = k * sps + line.at(k);
     if (t > n - 1 - margin) break;
     if (t >= margin) times.push(t);
   }
   return Float64Array.from(times);
+}
+
+/**
+ * The least-squares straight line τ(k) = a + b·k through the unwrapped block estimates, at the
+ * block centres k = (i + ½)·B: a symbol clock offset from the nominal rate drifts linearly, and
+ * the fit averages each block's self-noise (the pattern noise of |y|², large at small roll-off)
+ * over the whole record instead of following it from block to block.
+ */
+function timingLine(tau: Float64Array, blockSymbols: number): { at(k: number): number } {
+  const m = tau.length;
+  if (m < 3) {
+    const mean = tau.reduce((x, y) => x + y, 0) / m;
+    return { at: () => mean };
+  }
+  let sk = 0;
+  let st = 0;
+  for (let i = 0; i < m; i++) { sk += (i + 0.5) * blockSymbols; st += tau[i] as number; }
+  const kBar = sk / m;
+  const tBar = st / m;
+  let num = 0;
+  let den = 0;
+  for (let i = 0; i < m; i++) {
+    const dk = (i + 0.5) * blockSymbols - kBar;
+    num += dk * ((tau[i] as number) - tBar);
+    den += dk * dk;
+  }
+  const slope = num / den;
+  return { at: (k) => tBar + slope * (k - kBar) };
 }

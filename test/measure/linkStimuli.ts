@@ -10,6 +10,8 @@ export interface Link {
   readonly symbolCount: number;
   readonly symbolRateBd?: number;
   readonly rollOff?: number;
+  /** Transmit pulse span, symbols (default 12). */
+  readonly spanSymbols?: number;
   readonly offsetHz?: number;
   readonly phaseRad?: number;
   readonly seed?: number;
@@ -36,7 +38,7 @@ export function link(l: Link): { iq: Float64Array; sampleRateHz: number; symbolR
   }
   // Symbol 0 at 0.3 T: the timing recovery must find a fractional phase.
   const iq = rrcPsk(syms, 0, Math.floor(l.symbolCount * l.samplesPerSymbol), {
-    symbolRateBd: rs, sampleRateHz: fs, rollOff: l.rollOff ?? 0.35, spanSymbols: 12, firstSymbolS: 0.3 / rs,
+    symbolRateBd: rs, sampleRateHz: fs, rollOff: l.rollOff ?? 0.35, spanSymbols: l.spanSymbols ?? 12, firstSymbolS: 0.3 / rs,
   });
   const shifted = l.offsetHz ? frequencyShift(iq, fs, l.offsetHz) : iq;
   if (Number.isFinite(l.esN0Db)) {
