@@ -12,6 +12,7 @@
  * When two tokens of one kind disagree, the first is used and a warning says so.
  */
 import { CaptureFormatError } from "../errors.js";
+import { centerProblem, sampleRateProblem } from "./acceptedRanges.js";
 import type { SampleFormat } from "./source.js";
 
 /** What an extension names: a raw sample format, a WAV file, or a SigMF file (meta, data or archive). */
@@ -52,9 +53,9 @@ const TOKEN = /^(\d+(?:\.\d*)?|\.\d+)(?:e([+-]?\d+))?([kmg]?)(sps|hz)$/i;
 const PREFIX_EXPONENT: Readonly<Record<string, number>> = { "": 0, k: 3, m: 6, g: 9 };
 
 /**
- * Reads the rate and centre tokens from the file name of `path`. A rate token of zero is a
- * CaptureFormatError (a rate must be positive); the values are parsed from their decimal text,
- * so `156.8MHz` is exactly 156800000.
+ * Reads the rate and centre tokens from the file name of `path`. A token outside the accepted
+ * ranges (acceptedRanges.ts), e.g. `0sps` or `1e400Hz`, is a CaptureFormatError; the values are
+ * parsed from their decimal text, so `156.8MHz` is exactly 156800000.
  */
 export function fileNameTokens(path: string): FileNameTokens {
   const name = baseName(path);
@@ -73,13 +74,22 @@ export function fileNameTokens(path: string): FileNameTokens {
   const warnings: string[] = [];
   const rate = pickFirst(rates, "rate", warnings);
   const centre = pickFirst(centres, "centre frequency", warnings);
-  if (rate !== null && !(rate.value > 0 && Number.isFinite(rate.value))) {
-    throw new CaptureFormatError(path, `the file-name rate token ${rate.text} is not a positive, finite rate`);
-  }
-  if (centre !== null && !Number.isFinite(centre.value)) {
-    throw new CaptureFormatError(path, `the file-name centre token ${centre.text} is not a finite frequency`);
-  }
+  checkToken(path, rate, "rate", "S/s", sampleRateProblem);
+  checkToken(path, centre, "centre", "Hz", centerProblem);
   return { sampleRateHz: rate?.value ?? null, centerHz: centre?.value ?? null, warnings };
+}
+
+function checkToken(
+  path: string,
+  token: { text: string; value: number } | null,
+  what: string,
+  unit: string,
+  problemOf: (value: number) => string | null,
+): void {
+  const problem = token === null ? null : problemOf(token.value);
+  if (token !== null && problem !== null) {
+    throw new CaptureFormatError(path, `the file-name ${what} token ${token.text} (${token.value} ${unit}) ${problem}`);
+  }
 }
 
 function pickFirst(

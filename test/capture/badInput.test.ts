@@ -53,7 +53,7 @@ describe("openCapture(bad raw input)", () => {
     }
   });
   it("openCapture(a zero rate token in the file name) is a CaptureFormatError", async () => {
-    await expectError(put("bad_0sps.cu8", Buffer.alloc(64)), {}, CaptureFormatError, /0sps is not a positive/);
+    await expectError(put("bad_0sps.cu8", Buffer.alloc(64)), {}, CaptureFormatError, /0sps \(0 S\/s\) is not a sample rate: it must be a positive/);
   });
   it("openCapture(non-finite --center or --ppm) is a UsageError", async () => {
     const path = put("centre.cu8", Buffer.alloc(64));
@@ -124,7 +124,7 @@ describe("openCapture(bad SigMF metadata)", () => {
     ["datatype big-endian float", doc({ ...good, "core:datatype": "cf32_be" }), /cf32_be, a valid SigMF datatype that iqaudit cannot decode/],
     ["real without --real", doc({ ...good, "core:datatype": "rf32_le" }), /real datatype rf32_le.*--real/],
     ["sample_rate a string", doc({ ...good, "core:sample_rate": "1M" }), /core:sample_rate = the string "1M"; SigMF requires a number/],
-    ["sample_rate zero", doc({ ...good, "core:sample_rate": 0 }), /core:sample_rate 0; a sample rate must be positive/],
+    ["sample_rate zero", doc({ ...good, "core:sample_rate": 0 }), /core:sample_rate 0, which is not a sample rate: it must be a positive/],
     ["two channels", doc({ ...good, "core:num_channels": 2 }), /core:num_channels 2/],
     ["num_channels fractional", doc({ ...good, "core:num_channels": 1.5 }), /non-negative integer/],
     ["version a number", doc({ ...good, "core:version": 1 }), /core:version = the number 1/],

@@ -1,0 +1,118 @@
+// Inputs that once slipped through or stopped the readers (absurd rates and centres, a byte-order
+// mark, a named pipe, a WAV cut short, a file-name exponent): each is either read, with a
+// warning where something was repaired, or refused with one CaptureFormatError / UsageError line
+// naming the file or the option and the field. The accepted ranges are ours (docs/formats.md,
+// "Accepted ranges"); the file layouts are those of RIFF/WAVEFORMATEX, EBU Tech 3306 and the
+// SigMF v1.2.x schema (REFERENCES.md §9).
+import { basename } from "node:path";
+import { describe, expect, it } from "vitest";
+import { CaptureFormatError, UsageError } from "../../src/errors.js";
+import { encodeSamples, encodeWav, openCapture, type CaptureMeta, type CaptureOptions } from "../../src/capture/index.js";
+import { fmtBody, put, riffChunk, riffFile } from "./fixtures.js";
+
+type ErrorClass = typeof CaptureFormatError | typeof UsageError;
+
+async function failure(path: string, options: CaptureOptions): Promise<unknown> {
+  try {
+    const source = await openCapture(path, options);
+    await source.close();
+  } catch (e) {
+    return e;
+  }
+  return null;
+}
+
+async function expectRefused(path: string, options: CaptureOptions, kind: ErrorClass, pattern: RegExp, names: string): Promise<void> {
+  const caught = await failure(path, options);
+  expect(caught, `${basename(path)} should be refused`).toBeInstanceOf(kind);
+  const message = (caught as Error).message;
+  expect(message).not.toContain("\n");
+  expect(message).toContain(names);
+  expect(message).toMatch(pattern);
+}
+
+async function metaOf(path: string, options: CaptureOptions = {}): Promise<CaptureMeta> {
+  const source = await openCapture(path, options);
+  await source.close();
+  return source.meta;
+}
+
+const cf32 = encodeSamples("cf32_le", new Float64Array(64).fill(0.25));
+
+function sigmfMeta(global: object, capture: object = {}): string {
+  return JSON.stringify({
+    global: { "core:datatype": "cf32_le", "core:version": "1.2.0", ...global },
+    captures: [{ "core:sample_start": 0, ...capture }],
+    annotations: [],
+  });
+}
+
+describe("accepted sample rates and centres (docs/formats.md, accepted ranges: ours)", () => {
+  const raw = put("ranges.cf32", cf32);
+
+  for (const rate of [1, 300, 500, 999, 1e-300]) {
+    it(`openCapture(--rate ${rate}) is a UsageError: below 1 kS/s`, async () => {
+      await expectRefused(raw, { sampleRateHz: rate }, UsageError, /^--rate: \S+ is below 1 kS\/s.*k or M left off/, "--rate");
+    });
+  }
+  for (const rate of [1e300, 1.1e12]) {
+    it(`openCapture(--rate ${rate}) is a UsageError: above 1 TS/s`, async () => {
+      await expectRefused(raw, { sampleRateHz: rate }, UsageError, /^--rate: \S+ is above 1 TS\/s/, "--rate");
+    });
+  }
+  it("openCapture(--rate at the ends of the range, and the 8 kS/s of audio-rate IQ) reads the file", async () => {
+    for (const rate of [1e3, 8e3, 1e12]) expect((await metaOf(raw, { sampleRateHz: rate })).sampleRateHz).toBe(rate);
+  });
+  it("openCapture(--center beyond 3 THz or negative) is a UsageError; 0 Hz and 3 THz are read", async () => {
+    for (const centerHz of [1e300, 3.1e12, -1]) {
+      await expectRefused(raw, { sampleRateHz: 1e6, centerHz }, UsageError, /^--center: \S+ is outside 0 Hz to 3 THz/, "--center");
+    }
+    for (const centerHz of [0, 3e12]) expect((await metaOf(raw, { sampleRateHz: 1e6, centerHz })).centerHz).toBe(centerHz);
+  });
+
+  // The JSON text 1e400 is a valid number that JSON.parse reads as Infinity (ECMA-262 Number
+  // parsing rounds past the largest double to Infinity).
+  const sigmfRates: readonly [string, string, RegExp][] = [
+    ["1e400", "Infinity", /is not a sample rate/],
+    ["1e-300", "1e-300", /is below 1 kS\/s/],
+    ["1e300", "1e+300", /is above 1 TS\/s/],
+    ["500", "500", /is below 1 kS\/s/],
+  ];
+  for (const [text, shown, pattern] of sigmfRates) {
+    it(`openCapture(SigMF core:sample_rate ${text}) is a CaptureFormatError naming the field`, async () => {
+      const stem = `rate_${text.replace(/\W/g, "_")}`;
+      put(`${stem}.sigmf-data`, cf32);
+      const path = put(`${stem}.sigmf-meta`, sigmfMeta({ "core:sample_rate": "RATE" }).replace('"RATE"', text));
+      await expectRefused(path, {}, CaptureFormatError, new RegExp(`global core:sample_rate ${shown.replace("+", "\\+")}.*, which ${pattern.source}`), path);
+    });
+  }
+  it("openCapture(SigMF core:frequency 1e400) is a CaptureFormatError naming the field", async () => {
+    put("freq_inf.sigmf-data", cf32);
+    const path = put("freq_inf.sigmf-meta", sigmfMeta({ "core:sample_rate": 1e6 }, { "core:frequency": "F" }).replace('"F"', "1e400"));
+    await expectRefused(path, {}, CaptureFormatError, /captures\[0\] core:frequency Infinity .*which is not a finite frequency/, path);
+  });
+  it("openCapture(SigMF core:frequency 1e300) is a CaptureFormatError; 8 kS/s with a 1.5e8 Hz centre is read", async () => {
+    put("freq_big.sigmf-data", cf32);
+    const path = put("freq_big.sigmf-meta", sigmfMeta({ "core:sample_rate": 1e6 }, { "core:frequency": 1e300 }));
+    await expectRefused(path, {}, CaptureFormatError, /core:frequency 1e\+300, which is outside 0 Hz to 3 THz/, path);
+    put("audio_rate.sigmf-data", cf32);
+    const ok = put("audio_rate.sigmf-meta", sigmfMeta({ "core:sample_rate": 8000 }, { "core:frequency": 1.5e8 }));
+    expect(await metaOf(ok)).toMatchObject({ sampleRateHz: 8000, centerHz: 1.5e8 });
+  });
+
+  it("openCapture(WAV with a 500 S/s fmt rate) is a CaptureFormatError naming the fmt chunk; --rate repairs it", async () => {
+    const wav = put("slow.wav", riffFile([riffChunk("fmt ", fmtBody(1, 2, 500, 16)), riffChunk("data", Buffer.alloc(16))]));
+    await expectRefused(wav, {}, CaptureFormatError, /sample rate of 500 in its fmt chunk, which is below 1 kS\/s.*--rate/, wav);
+    const meta = await metaOf(wav, { sampleRateHz: 48000 });
+    expect(meta.sampleRateHz).toBe(48000);
+    expect(meta.warnings.join(" ")).toMatch(/--rate 48000 overrides the WAV header rate 500/);
+  });
+  it("openCapture(WAV IQ at 8 kS/s, the telephony rate) is read", async () => {
+    const wav = put("audio_iq.wav", encodeWav({ format: "ci16_le", sampleRateHz: 8000 }, [0.5, -0.5, 0.25, 0]));
+    expect((await metaOf(wav)).sampleRateHz).toBe(8000);
+  });
+  it("openCapture(a file-name rate token of 1e400sps or 300sps) is a CaptureFormatError naming the token", async () => {
+    await expectRefused(put("huge_1e400sps.cf32", cf32), {}, CaptureFormatError, /rate token 1e400sps \(Infinity S\/s\) is not a sample rate/, "huge_1e400sps");
+    await expectRefused(put("slow_300sps.cf32", cf32), {}, CaptureFormatError, /rate token 300sps \(300 S\/s\) is below 1 kS\/s/, "slow_300sps");
+  });
+});
