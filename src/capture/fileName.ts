@@ -3,7 +3,7 @@
  * own convention for a sample rate and a centre frequency written into the name.
  *
  * Convention (docs/formats.md): the base name without its extension is split into tokens at
- * `_`, `-`, spaces and `, ; = @ + ( ) [ ]`. A token that is wholly a number, an optional SI
+ * `_`, `-`, spaces and `, ; = @ + ( ) [ ]`, but not at the sign of an exponent (`1e-3`). A token that is wholly a number, an optional SI
  * prefix and a unit is read:
  *   rate   `<number>[k|M|G]sps`  e.g. `2.4Msps`, `250ksps`, `48000sps`      → samples/s
  *   centre `<number>[k|M|G]Hz`   e.g. `156.8MHz`, `433.92MHz`, `1.2GHz`     → Hz
@@ -49,6 +49,12 @@ export interface FileNameTokens {
   readonly warnings: readonly string[];
 }
 
+/**
+ * Token separators: `_`, spaces, `, ; = @ ( ) [ ]`, and `-` or `+` except as the sign of an
+ * exponent (after a digit or point and an `e`), so that `1e-300sps` is one token, read whole,
+ * and never `300sps`.
+ */
+const SEPARATORS = /[_\s,;=@()[\]]+|(?<![\d.][eE])[-+]+/;
 const TOKEN = /^(\d+(?:\.\d*)?|\.\d+)(?:e([+-]?\d+))?([kmg]?)(sps|hz)$/i;
 const PREFIX_EXPONENT: Readonly<Record<string, number>> = { "": 0, k: 3, m: 6, g: 9 };
 
@@ -63,7 +69,7 @@ export function fileNameTokens(path: string): FileNameTokens {
   const stem = dot > 0 ? name.slice(0, dot) : name;
   const rates: { text: string; value: number }[] = [];
   const centres: { text: string; value: number }[] = [];
-  for (const token of stem.split(/[_\s,;=@+()[\]-]+/)) {
+  for (const token of stem.split(SEPARATORS)) {
     const m = TOKEN.exec(token);
     if (m === null) continue;
     const exponent = Number(m[2] ?? "0") + (PREFIX_EXPONENT[(m[3] as string).toLowerCase()] as number);
