@@ -43,8 +43,8 @@ const DATETIME = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2}):(\d{2})(\.\d+)?Z$/;
 const BAD_FILE_NAME = /[/\\:*?"<>|]/;
 
 /**
- * Parses and checks the text of the .sigmf-meta file `metaPath`. Errors: CaptureFormatError
- * naming `metaPath` (see the rule above).
+ * Parses and checks the text of the .sigmf-meta file `metaPath` (a leading byte-order mark is
+ * skipped). Errors: CaptureFormatError naming `metaPath` (see the rule above).
  */
 export function parseSigmfMeta(text: string, metaPath: string): SigmfRecording {
   const fail = (problem: string): never => {
@@ -52,7 +52,9 @@ export function parseSigmfMeta(text: string, metaPath: string): SigmfRecording {
   };
   let root: Json;
   try {
-    root = JSON.parse(text) as Json;
+    // A UTF-8 byte-order mark (U+FEFF, as some editors write it) is not JSON, but a parser
+    // may ignore it (RFC 8259 §8.1, from memory): it is skipped.
+    root = JSON.parse(text.startsWith("\uFEFF") ? text.slice(1) : text) as Json;
   } catch (e) {
     return fail(`is not valid JSON (${oneLine((e as Error).message)})`);
   }

@@ -116,3 +116,13 @@ describe("accepted sample rates and centres (docs/formats.md, accepted ranges: o
     await expectRefused(put("slow_300sps.cf32", cf32), {}, CaptureFormatError, /rate token 300sps \(300 S\/s\) is below 1 kS\/s/, "slow_300sps");
   });
 });
+
+describe("SigMF metadata with a UTF-8 byte-order mark (RFC 8259 §8.1: a parser may ignore it; from memory)", () => {
+  it("openCapture(.sigmf-meta starting with EF BB BF) reads the recording", async () => {
+    put("bom.sigmf-data", cf32);
+    // EF BB BF is U+FEFF in UTF-8 (Unicode Standard, ch. 2 "Byte Order Mark"; from memory).
+    const text = sigmfMeta({ "core:sample_rate": 48000 }, { "core:frequency": 1.5e8 });
+    const path = put("bom.sigmf-meta", Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(text, "utf8")]));
+    expect(await metaOf(path)).toMatchObject({ sampleRateHz: 48000, centerHz: 1.5e8, fileSamples: 32 });
+  });
+});
