@@ -61,7 +61,7 @@ describe("openCapture(bad raw input)", () => {
     await expectError(path, { sampleRateHz: 1e6, ppm: Number.POSITIVE_INFINITY }, UsageError, /^--ppm:/, "--ppm");
   });
   it("openCapture(a directory) is a CaptureFormatError", async () => {
-    await expectError(dir, { sampleRateHz: 1e6, format: "cu8" }, CaptureFormatError, /not a regular file/);
+    await expectError(dir, { sampleRateHz: 1e6, format: "cu8" }, CaptureFormatError, /is a directory, not a capture file/);
   });
   it("openCapture(SigMF archive .sigmf) is a CaptureFormatError asking to extract it", async () => {
     await expectError(put("pack.sigmf", Buffer.alloc(512)), {}, CaptureFormatError, /SigMF archive/);

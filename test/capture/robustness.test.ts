@@ -4,11 +4,12 @@
 // naming the file or the option and the field. The accepted ranges are ours (docs/formats.md,
 // "Accepted ranges"); the file layouts are those of RIFF/WAVEFORMATEX, EBU Tech 3306 and the
 // SigMF v1.2.x schema (REFERENCES.md §9).
-import { basename } from "node:path";
+import { spawnSync } from "node:child_process";
+import { basename, join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { CaptureFormatError, UsageError } from "../../src/errors.js";
 import { encodeSamples, encodeWav, openCapture, type CaptureMeta, type CaptureOptions } from "../../src/capture/index.js";
-import { fmtBody, put, riffChunk, riffFile } from "./fixtures.js";
+import { dir, fmtBody, put, riffChunk, riffFile } from "./fixtures.js";
 
 type ErrorClass = typeof CaptureFormatError | typeof UsageError;
 
@@ -124,5 +125,33 @@ describe("SigMF metadata with a UTF-8 byte-order mark (RFC 8259 §8.1: a parser 
     const text = sigmfMeta({ "core:sample_rate": 48000 }, { "core:frequency": 1.5e8 });
     const path = put("bom.sigmf-meta", Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(text, "utf8")]));
     expect(await metaOf(path)).toMatchObject({ sampleRateHz: 48000, centerHz: 1.5e8, fileSamples: 32 });
+  });
+});
+
+describe("a named pipe as input (docs/formats.md: only a regular file is read)", () => {
+  /** A FIFO made with mkfifo(1) (POSIX); null where there is none. Nothing ever writes to it. */
+  function fifo(name: string): string | null {
+    const path = join(dir, name);
+    return spawnSync("mkfifo", [path]).status === 0 ? path : null;
+  }
+  // Opening a FIFO for reading blocks until a writer comes, so a reader that opens before it
+  // checks would never return: the test's timeout (10 s) bounds the case.
+  it("openCapture(a FIFO named .cf32) is a CaptureFormatError at once, naming the pipe", { timeout: 10_000 }, async (ctx) => {
+    const path = fifo("stream.cf32");
+    if (path === null) return ctx.skip();
+    await expectRefused(path, { sampleRateHz: 1e6 }, CaptureFormatError, /is a named pipe \(FIFO\), not a regular file: .*save it to a file first/, path);
+  });
+  it("openCapture(a FIFO as the .sigmf-meta or as the .sigmf-data) is a CaptureFormatError naming it", { timeout: 10_000 }, async (ctx) => {
+    const meta = fifo("piped_meta.sigmf-meta");
+    if (meta === null) return ctx.skip();
+    put("piped_meta.sigmf-data", cf32);
+    await expectRefused(meta, {}, CaptureFormatError, /is a named pipe/, meta);
+    put("piped_data.sigmf-meta", sigmfMeta({ "core:sample_rate": 1e6 }));
+    const data = fifo("piped_data.sigmf-data") as string;
+    await expectRefused(data, {}, CaptureFormatError, /is a named pipe \(FIFO\), not a regular file \(the dataset of/, data);
+  });
+  it("openCapture(a character device, /dev/zero) is a CaptureFormatError", { timeout: 10_000 }, async (ctx) => {
+    if (spawnSync("test", ["-c", "/dev/zero"]).status !== 0) return ctx.skip();
+    await expectRefused("/dev/zero", { sampleRateHz: 1e6, format: "cu8" }, CaptureFormatError, /is a device, not a regular file/, "/dev/zero");
   });
 });
