@@ -48,7 +48,9 @@ export function isWavMagic(head: Uint8Array): boolean {
  * Walks the chunks of the WAVE file open in `handle` (`fileBytes` long). Errors
  * (CaptureFormatError naming `path` and the byte offset): too short, bad magic, a missing or
  * short ds64 in RF64, a chunk id that is not printable ASCII, a chunk header cut off before any
- * data chunk, a chunk whose body runs past the end of the file.
+ * data chunk, a chunk before the data whose body runs past the end of the file. A data chunk
+ * that runs past the end is read to the end, and a chunk after it that does is ignored, each
+ * with a warning.
  */
 export async function walkWavChunks(handle: FileHandle, fileBytes: number, path: string): Promise<WavLayout> {
   const warnings: string[] = [];
@@ -72,6 +74,7 @@ export async function walkWavChunks(handle: FileHandle, fileBytes: number, path:
 
   const chunks: WavChunk[] = [];
   let position = 12;
+  let cutShort = false;
   while (position < fileBytes) {
     if (chunks.length >= MAX_CHUNKS) {
       throw new CaptureFormatError(path, `has more than ${MAX_CHUNKS} chunks before byte ${position}; the header is corrupt`, position);
@@ -93,20 +96,57 @@ export async function walkWavChunks(handle: FileHandle, fileBytes: number, path:
     const sizeBytes = declared === UINT32_MAX && ds64 !== null ? ds64Size(ds64, id, path, position) : declared;
     const bodyOffsetBytes = position + 8;
     if (bodyOffsetBytes + sizeBytes > fileBytes) {
-      throw new CaptureFormatError(
-        path,
-        `chunk "${id}" at byte ${position} declares ${sizeBytes} bytes but only ${fileBytes - bodyOffsetBytes} remain (the file is truncated or the header corrupt)`,
-        position,
-      );
+      const placeholder = declared === UINT32_MAX && ds64 === null;
+      const cut = cutShortChunk({ id, headerOffsetBytes: position, bodyOffsetBytes, sizeBytes }, placeholder, chunks, fileBytes, path);
+      if (cut.chunk !== null) chunks.push(cut.chunk);
+      warnings.push(cut.warning);
+      cutShort = true;
+      break;
     }
     chunks.push({ id, headerOffsetBytes: position, bodyOffsetBytes, sizeBytes });
     position = bodyOffsetBytes + sizeBytes + (sizeBytes % 2);
   }
   const expected = riffSize + 8;
-  if (expected !== fileBytes && expected !== fileBytes + 1) {
+  // A file cut short has a RIFF size that disagrees; the cut-short warning says so already.
+  if (!cutShort && expected !== fileBytes && expected !== fileBytes + 1) {
     warnings.push(`The ${form} size field of ${path} gives ${expected} bytes but the file has ${fileBytes}; the chunks are read as found.`);
   }
   return { form, chunks, warnings };
+}
+
+/**
+ * A chunk whose body runs past the end of the file. The first data chunk is what a recorder
+ * that crashed (or one that streams and writes 0xFFFFFFFF as its size) leaves: it is read to the
+ * end of the file, as a raw file is, with a warning. Any chunk after a data chunk is ignored with
+ * a warning. A chunk before the data cannot be skipped (the data's position is unknown): an error.
+ */
+function cutShortChunk(
+  chunk: WavChunk,
+  placeholder: boolean,
+  before: readonly WavChunk[],
+  fileBytes: number,
+  path: string,
+): { chunk: WavChunk | null; warning: string } {
+  const remaining = fileBytes - chunk.bodyOffsetBytes;
+  const at = `chunk "${chunk.id}" at byte ${chunk.headerOffsetBytes}`;
+  if (before.some((c) => c.id === "data")) {
+    return { chunk: null, warning: `The ${at} of ${path} declares ${chunk.sizeBytes} bytes but only ${remaining} remain; it is ignored.` };
+  }
+  if (chunk.id !== "data") {
+    throw new CaptureFormatError(
+      path,
+      `${at} declares ${chunk.sizeBytes} bytes but only ${remaining} remain (the file is truncated or the header corrupt)`,
+      chunk.headerOffsetBytes,
+    );
+  }
+  const why =
+    placeholder
+      ? "0xFFFFFFFF bytes, the size a recorder that streams writes before it knows the length"
+      : `${chunk.sizeBytes} bytes but the file holds only ${remaining} after its header (the recording was cut short)`;
+  return {
+    chunk: { ...chunk, sizeBytes: remaining },
+    warning: `The data chunk of ${path} declares ${why}; the samples are read to the end of the file.`,
+  };
 }
 
 interface Ds64 {

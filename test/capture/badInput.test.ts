@@ -76,7 +76,6 @@ describe("openCapture(bad WAV input)", () => {
     ["header cut inside a chunk header", goodWav.subarray(0, 16), /ends inside a chunk header at byte 12/],
     ["fmt missing", riffFile([data4]), /without a fmt chunk/],
     ["data missing", riffFile([fmt16]), /without a data chunk/],
-    ["data chunk past EOF (truncated file)", goodWav.subarray(0, goodWav.byteLength - 4), /chunk "data" at byte 36 declares 12 bytes but only 8 remain/],
     ["chunk past EOF before data", riffFile([fmt16, riffChunk("LIST", Buffer.alloc(4), 4000)]), /chunk "LIST" .* declares 4000 bytes/],
     ["garbage chunk id", riffFile([fmt16, Buffer.from([0, 1, 2, 3, 4, 0, 0, 0]), data4]), /corrupt chunk header/],
     ["A-law", riffFile([riffChunk("fmt ", fmtBody(6, 2, 8000, 8)), data4]), /encoding 0x0006 \(A-law\), which is not supported/],

@@ -9,7 +9,7 @@ import { basename, join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { CaptureFormatError, UsageError } from "../../src/errors.js";
 import { encodeSamples, encodeWav, openCapture, type CaptureMeta, type CaptureOptions } from "../../src/capture/index.js";
-import { dir, fmtBody, put, riffChunk, riffFile } from "./fixtures.js";
+import { dir, fmtBody, int16le, put, readAll, riffChunk, riffFile } from "./fixtures.js";
 
 type ErrorClass = typeof CaptureFormatError | typeof UsageError;
 
@@ -153,5 +153,88 @@ describe("a named pipe as input (docs/formats.md: only a regular file is read)",
   it("openCapture(a character device, /dev/zero) is a CaptureFormatError", { timeout: 10_000 }, async (ctx) => {
     if (spawnSync("test", ["-c", "/dev/zero"]).status !== 0) return ctx.skip();
     await expectRefused("/dev/zero", { sampleRateHz: 1e6, format: "cu8" }, CaptureFormatError, /is a device, not a regular file/, "/dev/zero");
+  });
+});
+
+describe("a WAV whose data chunk declares more than the file holds (read to the last whole sample, as a raw file is)", () => {
+  // Hand-built PCM16 stereo WAV (RIFF/WAVEFORMATEX layout): 12 bytes RIFF header, 8 + 16 fmt,
+  // 8 data header, so the samples start at byte 44; one I,Q frame is 4 bytes. The sample values
+  // are multiples of 1/8, exact in int16 (s = x·32768) and in float32.
+  const FRAMES = 64;
+  const iq = Array.from({ length: 2 * FRAMES }, (_, k) => ((k % 15) - 7) / 8);
+  const full = riffFile([riffChunk("fmt ", fmtBody(1, 2, 48000, 16)), riffChunk("data", int16le(iq))]);
+
+  async function readWav(name: string, bytes: Buffer): Promise<{ meta: CaptureMeta; samples: Float32Array }> {
+    const source = await openCapture(put(name, bytes));
+    try {
+      return { meta: source.meta, samples: await readAll(source) };
+    } finally {
+      await source.close();
+    }
+  }
+
+  for (const cutBytes of [1, 2, 3, 4, 5, 100, 4 * FRAMES - 5]) {
+    it(`openCapture(WAV cut ${cutBytes} bytes short) reads floor((size − 44) / 4) whole samples, with a warning`, async () => {
+      const { meta, samples } = await readWav(`cut_${cutBytes}.wav`, full.subarray(0, full.byteLength - cutBytes));
+      const bodyBytes = 4 * FRAMES - cutBytes;
+      const whole = Math.floor(bodyBytes / 4);
+      expect(meta.fileSamples).toBe(whole);
+      expect(meta.trailingBytes).toBe(bodyBytes % 4);
+      expect(Array.from(samples)).toEqual(iq.slice(0, 2 * whole));
+      expect(meta.warnings[0]).toBe(
+        `The data chunk of ${meta.path} declares ${4 * FRAMES} bytes but the file holds only ${bodyBytes} after its header ` +
+          "(the recording was cut short); the samples are read to the end of the file.",
+      );
+      // The RIFF size disagrees too, but that is the same fact: one warning for it, plus one for a partial sample.
+      expect(meta.warnings).toHaveLength(bodyBytes % 4 === 0 ? 1 : 2);
+    });
+  }
+
+  it("openCapture(WAV with data size 0xFFFFFFFF, as a streaming recorder writes) reads to the end of the file", async () => {
+    const streamed = Buffer.from(full);
+    streamed.writeUInt32LE(0xffffffff, 4); // the RIFF size is unknown too
+    streamed.writeUInt32LE(0xffffffff, 40);
+    const { meta, samples } = await readWav("streamed.wav", streamed);
+    expect(meta.fileSamples).toBe(FRAMES);
+    expect(Array.from(samples)).toEqual(iq);
+    expect(meta.warnings).toEqual([
+      `The data chunk of ${meta.path} declares 0xFFFFFFFF bytes, the size a recorder that streams writes before it knows the length; the samples are read to the end of the file.`,
+    ]);
+  });
+
+  it("openCapture(RF64 whose ds64 data size exceeds the file, EBU Tech 3306) reads to the end of the file", async () => {
+    // ds64 body: riffSize u64, dataSize u64, sampleCount u64, tableLength u32 (EBU Tech 3306 §3).
+    const ds64 = Buffer.alloc(28);
+    ds64.writeBigUInt64LE(10_000n, 0);
+    ds64.writeBigUInt64LE(BigInt(8 * FRAMES), 8); // twice the bytes present
+    ds64.writeBigUInt64LE(BigInt(2 * FRAMES), 16);
+    const body = Buffer.concat([riffChunk("ds64", ds64), riffChunk("fmt ", fmtBody(1, 2, 48000, 16)), riffChunk("data", int16le(iq), 0xffffffff)]);
+    const head = Buffer.alloc(12);
+    head.write("RF64", 0, "latin1");
+    head.writeUInt32LE(0xffffffff, 4);
+    head.write("WAVE", 8, "latin1");
+    const { meta, samples } = await readWav("rf64_cut.wav", Buffer.concat([head, body]));
+    expect(meta.fileSamples).toBe(FRAMES);
+    expect(Array.from(samples)).toEqual(iq);
+    expect(meta.warnings).toHaveLength(1);
+    expect(meta.warnings[0]).toMatch(/declares 512 bytes but the file holds only 256 after its header/);
+  });
+
+  it("openCapture(WAV with a chunk after the data that runs past the end) reads the samples and ignores that chunk", async () => {
+    const withTail = Buffer.concat([full, riffChunk("LIST", Buffer.alloc(6), 4000)]);
+    const { meta, samples } = await readWav("tail_cut.wav", withTail);
+    expect(meta.fileSamples).toBe(FRAMES);
+    expect(Array.from(samples)).toEqual(iq);
+    expect(meta.warnings).toEqual([`The chunk "LIST" at byte ${full.byteLength} of ${meta.path} declares 4000 bytes but only 6 remain; it is ignored.`]);
+  });
+
+  it("openCapture(WAV cut inside the header, before the samples) is still refused", async () => {
+    for (const length of [8, 20, 40]) {
+      const caught = await failure(put(`cut_header_${length}.wav`, full.subarray(0, length)), {});
+      expect(caught, `${length} bytes`).toBeInstanceOf(CaptureFormatError);
+    }
+    // A data chunk header with no byte after it: no whole sample.
+    const caught = await failure(put("cut_header_44.wav", full.subarray(0, 44)), {});
+    expect((caught as Error).message).toMatch(/holds no samples/);
   });
 });

@@ -99,6 +99,25 @@ describe("inputs that are read", () => {
   });
 });
 
+describe("a WAV whose data chunk declares more than the file holds is read with a warning", () => {
+  // encodeWav writes plain PCM16 stereo with a 44-byte header (RIFF 12, fmt 8 + 16, data 8: the
+  // RIFF/WAVEFORMATEX layout), so the data size field is at byte 40 and a frame is 4 bytes.
+  const wav = encodeWav({ format: "ci16_le", sampleRateHz: 48000 }, tone(4096));
+  it("inspect a WAV cut short mid-sample: exit 0, floor((size − 44) / 4) samples, warnings", () => {
+    const cut = file("crashed.wav", wav.subarray(0, wav.byteLength - 1002));
+    const { report, warnings } = expectRead([cut]);
+    expect(report.capture["fileSamples"]).toBe(Math.floor((4 * 4096 - 1002) / 4));
+    expect(warnings.join("\n")).toMatch(/data chunk of .*crashed\.wav declares 16384 bytes but the file holds only 15382/);
+  });
+  it("inspect a WAV whose data size is 0xFFFFFFFF: exit 0, every sample", () => {
+    const streamed = Buffer.from(wav);
+    streamed.writeUInt32LE(0xffffffff, 40);
+    const { report, warnings } = expectRead([file("streamed.wav", streamed)]);
+    expect(report.capture["fileSamples"]).toBe(4096);
+    expect(warnings.join("\n")).toMatch(/declares 0xFFFFFFFF bytes/);
+  });
+});
+
 describe("a named pipe as input (docs/formats.md: only a regular file is read)", () => {
   it("inspect a FIFO: exit 2 at once, naming the pipe (it used to wait for a writer forever)", (ctx) => {
     const path = join(dir, "stream.cf32");
