@@ -118,6 +118,27 @@ describe("a WAV whose data chunk declares more than the file holds is read with 
   });
 });
 
+describe("non-finite samples are counted and warned, never a crash (formats.md: a NaN or infinite frame is read as 0)", () => {
+  for (const format of ["cf32_le", "cf64_le"] as const) {
+    it(`inspect a ${format} capture where 9 samples in 10 have a NaN or infinite component: exit 0, each counted`, () => {
+      const iq = tone(8192);
+      let bad = 0;
+      for (let k = 0; k < 8192; k++) {
+        if (k % 10 === 0) continue;
+        bad++;
+        // I NaN; Q +Inf; both −Inf and NaN: every kind counts once per sample (frame).
+        if (k % 3 === 0) iq[2 * k] = Number.NaN;
+        else if (k % 3 === 1) iq[2 * k + 1] = Number.POSITIVE_INFINITY;
+        else [iq[2 * k], iq[2 * k + 1]] = [Number.NEGATIVE_INFINITY, Number.NaN];
+      }
+      const ext = format === "cf32_le" ? "cf32" : "cf64";
+      const { report, warnings } = expectRead([file(`mostly_nan_1Msps.${ext}`, encodeSamples(format, iq))]);
+      expect(report.quality["nonFiniteSamples"]).toBe(bad);
+      expect(warnings.join("\n")).toContain(`${bad} samples with a NaN or infinite component were counted and read as 0`);
+    });
+  }
+});
+
 describe("a named pipe as input (docs/formats.md: only a regular file is read)", () => {
   it("inspect a FIFO: exit 2 at once, naming the pipe (it used to wait for a writer forever)", (ctx) => {
     const path = join(dir, "stream.cf32");
