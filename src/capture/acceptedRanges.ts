@@ -23,9 +23,7 @@ export const CENTER_MAX_HZ = 3e12;
  */
 export function sampleRateProblem(rateHz: number): string | null {
   if (!(Number.isFinite(rateHz) && rateHz > 0)) return "is not a sample rate: it must be a positive, finite number of samples/s";
-  if (rateHz < SAMPLE_RATE_MIN_HZ) {
-    return "is below 1 kS/s, the lowest sample rate iqaudit accepts (docs/formats.md); was a k or M left off?";
-  }
+  if (rateHz < SAMPLE_RATE_MIN_HZ) return "is below 1 kS/s, the lowest sample rate iqaudit accepts (docs/formats.md)";
   if (rateHz > SAMPLE_RATE_MAX_HZ) return "is above 1 TS/s, the highest sample rate iqaudit accepts (docs/formats.md)";
   return null;
 }

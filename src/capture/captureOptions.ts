@@ -3,7 +3,7 @@
  * warning when a flag overrides a value found in the file's metadata.
  */
 import { UsageError } from "../errors.js";
-import { centerProblem, sampleRateProblem } from "./acceptedRanges.js";
+import { centerProblem, SAMPLE_RATE_MIN_HZ, sampleRateProblem } from "./acceptedRanges.js";
 import type { Origin, SampleFormat } from "./source.js";
 
 /** Every field optional; each comes from a CLI flag (named in brackets). */
@@ -29,7 +29,11 @@ export interface CaptureOptions {
 export function checkCaptureOptions(options: CaptureOptions): void {
   const rate = options.sampleRateHz;
   const rateProblem = rate === undefined ? null : sampleRateProblem(rate);
-  if (rateProblem !== null) throw new UsageError("--rate", `${shortNumber(rate as number)} ${rateProblem}`);
+  if (rateProblem !== null) {
+    // A typed rate under 1 kS/s is in practice one without its prefix (500 for 500k).
+    const hint = (rate as number) > 0 && (rate as number) < SAMPLE_RATE_MIN_HZ ? "; was a k or M left off?" : "";
+    throw new UsageError("--rate", `${shortNumber(rate as number)} ${rateProblem}${hint}`);
+  }
   const centre = options.centerHz;
   const centreProblem = centre === undefined ? null : centerProblem(centre);
   if (centreProblem !== null) throw new UsageError("--center", `${shortNumber(centre as number)} ${centreProblem}`);

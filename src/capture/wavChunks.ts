@@ -139,10 +139,9 @@ function cutShortChunk(
       chunk.headerOffsetBytes,
     );
   }
-  const why =
-    placeholder
-      ? "0xFFFFFFFF bytes, the size a recorder that streams writes before it knows the length"
-      : `${chunk.sizeBytes} bytes but the file holds only ${remaining} after its header (the recording was cut short)`;
+  const why = placeholder
+    ? "0xFFFFFFFF bytes, the size a recorder that streams writes before it knows the length"
+    : `${chunk.sizeBytes} bytes but the file holds only ${remaining} after its header (the recording was cut short)`;
   return {
     chunk: { ...chunk, sizeBytes: remaining },
     warning: `The data chunk of ${path} declares ${why}; the samples are read to the end of the file.`,
