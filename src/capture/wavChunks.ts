@@ -47,10 +47,10 @@ export function isWavMagic(head: Uint8Array): boolean {
 /**
  * Walks the chunks of the WAVE file open in `handle` (`fileBytes` long). Errors
  * (CaptureFormatError naming `path` and the byte offset): too short, bad magic, a missing or
- * short ds64 in RF64, a chunk id that is not printable ASCII, a chunk header cut off before any
- * data chunk, a chunk before the data whose body runs past the end of the file. A data chunk
- * that runs past the end is read to the end, and a chunk after it that does is ignored, each
- * with a warning.
+ * short ds64 in RF64, a chunk id before the data that is not printable ASCII, a chunk header
+ * cut off before any data chunk, a chunk before the data whose body runs past the end of the
+ * file. A data chunk that runs past the end is read to the end, and a chunk after it that does
+ * or bytes after it that are no chunk are ignored, each with a warning.
  */
 export async function walkWavChunks(handle: FileHandle, fileBytes: number, path: string): Promise<WavLayout> {
   const warnings: string[] = [];
@@ -74,7 +74,7 @@ export async function walkWavChunks(handle: FileHandle, fileBytes: number, path:
 
   const chunks: WavChunk[] = [];
   let position = 12;
-  let cutShort = false;
+  let stoppedEarly = false;
   while (position < fileBytes) {
     if (chunks.length >= MAX_CHUNKS) {
       throw new CaptureFormatError(path, `has more than ${MAX_CHUNKS} chunks before byte ${position}; the header is corrupt`, position);
@@ -90,6 +90,12 @@ export async function walkWavChunks(handle: FileHandle, fileBytes: number, path:
     }
     const id = ascii(header, 0);
     if (!/^[\x20-\x7e]{4}$/.test(id)) {
+      if (chunks.some((c) => c.id === "data")) {
+        // The samples are known; what follows them (junk a recorder appended) is not needed.
+        warnings.push(`The ${fileBytes - position} bytes after byte ${position} of ${path} are not a RIFF chunk and are ignored.`);
+        stoppedEarly = true;
+        break;
+      }
       throw new CaptureFormatError(path, `has a corrupt chunk header at byte ${position}: the id "${printable(id)}" is not 4 ASCII characters`, position);
     }
     const declared = new DataView(header.buffer, header.byteOffset, 8).getUint32(4, true);
@@ -100,15 +106,15 @@ export async function walkWavChunks(handle: FileHandle, fileBytes: number, path:
       const cut = cutShortChunk({ id, headerOffsetBytes: position, bodyOffsetBytes, sizeBytes }, placeholder, chunks, fileBytes, path);
       if (cut.chunk !== null) chunks.push(cut.chunk);
       warnings.push(cut.warning);
-      cutShort = true;
+      stoppedEarly = true;
       break;
     }
     chunks.push({ id, headerOffsetBytes: position, bodyOffsetBytes, sizeBytes });
     position = bodyOffsetBytes + sizeBytes + (sizeBytes % 2);
   }
   const expected = riffSize + 8;
-  // A file cut short has a RIFF size that disagrees; the cut-short warning says so already.
-  if (!cutShort && expected !== fileBytes && expected !== fileBytes + 1) {
+  // A walk that stopped early at a cut or at junk has said so already; the RIFF size then disagrees too.
+  if (!stoppedEarly && expected !== fileBytes && expected !== fileBytes + 1) {
     warnings.push(`The ${form} size field of ${path} gives ${expected} bytes but the file has ${fileBytes}; the chunks are read as found.`);
   }
   return { form, chunks, warnings };

@@ -228,6 +228,14 @@ describe("a WAV whose data chunk declares more than the file holds (read to the 
     expect(meta.warnings).toEqual([`The chunk "LIST" at byte ${full.byteLength} of ${meta.path} declares 4000 bytes but only 6 remain; it is ignored.`]);
   });
 
+  it("openCapture(WAV with bytes after the data that are no RIFF chunk) reads the samples and ignores them", async () => {
+    const junk = Buffer.from([0x00, 0xff, 0x13, 0x07, 0x42, 0x42, 0x42, 0x42, 0x01, 0x02]); // id "\0\xff\x13\x07": not 4 ASCII characters
+    const { meta, samples } = await readWav("junk_tail.wav", Buffer.concat([full, junk]));
+    expect(meta.fileSamples).toBe(FRAMES);
+    expect(Array.from(samples)).toEqual(iq);
+    expect(meta.warnings).toEqual([`The 10 bytes after byte ${full.byteLength} of ${meta.path} are not a RIFF chunk and are ignored.`]);
+  });
+
   it("openCapture(WAV cut inside the header, before the samples) is still refused", async () => {
     for (const length of [8, 20, 40]) {
       const caught = await failure(put(`cut_header_${length}.wav`, full.subarray(0, length)), {});
