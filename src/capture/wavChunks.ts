@@ -49,8 +49,9 @@ export function isWavMagic(head: Uint8Array): boolean {
  * (CaptureFormatError naming `path` and the byte offset): too short, bad magic, a missing or
  * short ds64 in RF64, a chunk id before the data that is not printable ASCII, a chunk header
  * cut off before any data chunk, a chunk before the data whose body runs past the end of the
- * file. A data chunk that runs past the end is read to the end, and a chunk after it that does
- * or bytes after it that are no chunk are ignored, each with a warning.
+ * file. A data chunk that runs past the end, or one of size 0 in a RIFF of a size that ends
+ * there while bytes follow (sizes never written), is read to the end; a chunk after it that runs
+ * past the end or bytes after it that are no chunk are ignored; each with a warning.
  */
 export async function walkWavChunks(handle: FileHandle, fileBytes: number, path: string): Promise<WavLayout> {
   const warnings: string[] = [];
@@ -101,6 +102,18 @@ export async function walkWavChunks(handle: FileHandle, fileBytes: number, path:
     const declared = new DataView(header.buffer, header.byteOffset, 8).getUint32(4, true);
     const sizeBytes = declared === UINT32_MAX && ds64 !== null ? ds64Size(ds64, id, path, position) : declared;
     const bodyOffsetBytes = position + 8;
+    const unwritten = id === "data" && sizeBytes === 0 && riffSize + 8 <= bodyOffsetBytes && bodyOffsetBytes < fileBytes;
+    if (unwritten && !chunks.some((c) => c.id === "data")) {
+      // Both sizes say the file ends at the data chunk's header, yet bytes follow: a recorder
+      // that writes its sizes on closing stopped before it could. Read on to the end.
+      warnings.push(
+        `The data chunk of ${path} declares 0 bytes and the ${form} size ends the file there, but ${fileBytes - bodyOffsetBytes} bytes ` +
+          "follow (a recorder that stopped before writing its sizes); the samples are read to the end of the file.",
+      );
+      chunks.push({ id, headerOffsetBytes: position, bodyOffsetBytes, sizeBytes: fileBytes - bodyOffsetBytes });
+      stoppedEarly = true;
+      break;
+    }
     if (bodyOffsetBytes + sizeBytes > fileBytes) {
       const placeholder = declared === UINT32_MAX && ds64 === null;
       const cut = cutShortChunk({ id, headerOffsetBytes: position, bodyOffsetBytes, sizeBytes }, placeholder, chunks, fileBytes, path);

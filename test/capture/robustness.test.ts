@@ -228,6 +228,21 @@ describe("a WAV whose data chunk declares more than the file holds (read to the 
     expect(meta.warnings).toEqual([`The chunk "LIST" at byte ${full.byteLength} of ${meta.path} declares 4000 bytes but only 6 remain; it is ignored.`]);
   });
 
+  it("openCapture(WAV whose RIFF and data sizes were never written, 36 and 0) reads to the end of the file", async () => {
+    // A writer that fills in its sizes on closing starts with RIFF size 36 (the header alone) and data size 0.
+    const unwritten = Buffer.from(full);
+    unwritten.writeUInt32LE(36, 4);
+    unwritten.writeUInt32LE(0, 40);
+    const { meta, samples } = await readWav("unwritten.wav", unwritten);
+    expect(meta.fileSamples).toBe(FRAMES);
+    expect(Array.from(samples)).toEqual(iq);
+    expect(meta.warnings).toHaveLength(1);
+    expect(meta.warnings[0]).toMatch(/declares 0 bytes and the RIFF size ends the file there, but 256 bytes follow/);
+    // A data chunk of size 0 in a RIFF whose size goes on past it is an empty data chunk: refused.
+    const empty = riffFile([riffChunk("fmt ", fmtBody(1, 2, 48000, 16)), riffChunk("data", Buffer.alloc(0)), riffChunk("LIST", Buffer.alloc(4))]);
+    expect(((await failure(put("empty_data.wav", empty), {})) as Error).message).toMatch(/holds no samples \(the data chunk is empty\)/);
+  });
+
   it("openCapture(WAV with bytes after the data that are no RIFF chunk) reads the samples and ignores them", async () => {
     const junk = Buffer.from([0x00, 0xff, 0x13, 0x07, 0x42, 0x42, 0x42, 0x42, 0x01, 0x02]); // id "\0\xff\x13\x07": not 4 ASCII characters
     const { meta, samples } = await readWav("junk_tail.wav", Buffer.concat([full, junk]));
