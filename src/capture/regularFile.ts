@@ -51,7 +51,8 @@ function openError(path: string, e: unknown, what: string, missing: string): Cap
 
 function notRegular(s: Stats, what: string): string {
   if (s.isDirectory()) return `is a directory, not a capture file${what}`;
-  const kind = s.isFIFO() ? "a named pipe (FIFO)" : s.isCharacterDevice() || s.isBlockDevice() ? "a device" : s.isSocket() ? "a socket" : "not a regular file";
+  const device = s.isCharacterDevice() || s.isBlockDevice();
+  const kind = s.isFIFO() ? "a named pipe (FIFO)" : device ? "a device" : s.isSocket() ? "a socket" : "something";
   return (
     `is ${kind}, not a regular file${what}: iqaudit reads a capture more than once (its header, then the whole ` +
     "file for its hash and spectrum, then a span again), which a stream cannot give; save it to a file first"
