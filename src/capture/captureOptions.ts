@@ -3,6 +3,7 @@
  * warning when a flag overrides a value found in the file's metadata.
  */
 import { UsageError } from "../errors.js";
+import { centerProblem, SAMPLE_RATE_MIN_HZ, sampleRateProblem } from "./acceptedRanges.js";
 import type { Origin, SampleFormat } from "./source.js";
 
 /** Every field optional; each comes from a CLI flag (named in brackets). */
@@ -21,15 +22,21 @@ export interface CaptureOptions {
   readonly real?: boolean | undefined;
 }
 
-/** Throws a UsageError for a rate that is not positive and finite, a non-finite centre or ppm. */
+/**
+ * Throws a UsageError for a rate or a centre outside the accepted ranges (acceptedRanges.ts) and
+ * for a non-finite ppm.
+ */
 export function checkCaptureOptions(options: CaptureOptions): void {
   const rate = options.sampleRateHz;
-  if (rate !== undefined && !(Number.isFinite(rate) && rate > 0)) {
-    throw new UsageError("--rate", `${rate} is not a sample rate: it must be a positive, finite number of samples/s`);
+  const rateProblem = rate === undefined ? null : sampleRateProblem(rate);
+  if (rateProblem !== null) {
+    // A typed rate under 1 kS/s is in practice one without its prefix (500 for 500k).
+    const hint = (rate as number) > 0 && (rate as number) < SAMPLE_RATE_MIN_HZ ? "; was a k or M left off?" : "";
+    throw new UsageError("--rate", `${shortNumber(rate as number)} ${rateProblem}${hint}`);
   }
-  if (options.centerHz !== undefined && !Number.isFinite(options.centerHz)) {
-    throw new UsageError("--center", `${options.centerHz} is not a finite frequency in Hz`);
-  }
+  const centre = options.centerHz;
+  const centreProblem = centre === undefined ? null : centerProblem(centre);
+  if (centreProblem !== null) throw new UsageError("--center", `${shortNumber(centre as number)} ${centreProblem}`);
   if (options.ppm !== undefined && !Number.isFinite(options.ppm)) {
     throw new UsageError("--ppm", `${options.ppm} is not a finite clock error in ppm`);
   }

@@ -3,7 +3,7 @@
  * own convention for a sample rate and a centre frequency written into the name.
  *
  * Convention (docs/formats.md): the base name without its extension is split into tokens at
- * `_`, `-`, spaces and `, ; = @ + ( ) [ ]`. A token that is wholly a number, an optional SI
+ * `_`, `-`, spaces and `, ; = @ + ( ) [ ]`, but not at the sign of an exponent (`1e-3`). A token that is wholly a number, an optional SI
  * prefix and a unit is read:
  *   rate   `<number>[k|M|G]sps`  e.g. `2.4Msps`, `250ksps`, `48000sps`      → samples/s
  *   centre `<number>[k|M|G]Hz`   e.g. `156.8MHz`, `433.92MHz`, `1.2GHz`     → Hz
@@ -12,6 +12,7 @@
  * When two tokens of one kind disagree, the first is used and a warning says so.
  */
 import { CaptureFormatError } from "../errors.js";
+import { centerProblem, sampleRateProblem } from "./acceptedRanges.js";
 import type { SampleFormat } from "./source.js";
 
 /** What an extension names: a raw sample format, a WAV file, or a SigMF file (meta, data or archive). */
@@ -48,13 +49,19 @@ export interface FileNameTokens {
   readonly warnings: readonly string[];
 }
 
+/**
+ * Token separators: `_`, spaces, `, ; = @ ( ) [ ]`, and `-` or `+` except as the sign of an
+ * exponent (after a digit or point and an `e`), so that `1e-300sps` is one token, read whole,
+ * and never `300sps`.
+ */
+const SEPARATORS = /[_\s,;=@()[\]]+|(?<![\d.][eE])[-+]+/;
 const TOKEN = /^(\d+(?:\.\d*)?|\.\d+)(?:e([+-]?\d+))?([kmg]?)(sps|hz)$/i;
 const PREFIX_EXPONENT: Readonly<Record<string, number>> = { "": 0, k: 3, m: 6, g: 9 };
 
 /**
- * Reads the rate and centre tokens from the file name of `path`. A rate token of zero is a
- * CaptureFormatError (a rate must be positive); the values are parsed from their decimal text,
- * so `156.8MHz` is exactly 156800000.
+ * Reads the rate and centre tokens from the file name of `path`. A token outside the accepted
+ * ranges (acceptedRanges.ts), e.g. `0sps` or `1e400Hz`, is a CaptureFormatError; the values are
+ * parsed from their decimal text, so `156.8MHz` is exactly 156800000.
  */
 export function fileNameTokens(path: string): FileNameTokens {
   const name = baseName(path);
@@ -62,7 +69,7 @@ export function fileNameTokens(path: string): FileNameTokens {
   const stem = dot > 0 ? name.slice(0, dot) : name;
   const rates: { text: string; value: number }[] = [];
   const centres: { text: string; value: number }[] = [];
-  for (const token of stem.split(/[_\s,;=@+()[\]-]+/)) {
+  for (const token of stem.split(SEPARATORS)) {
     const m = TOKEN.exec(token);
     if (m === null) continue;
     const exponent = Number(m[2] ?? "0") + (PREFIX_EXPONENT[(m[3] as string).toLowerCase()] as number);
@@ -73,13 +80,22 @@ export function fileNameTokens(path: string): FileNameTokens {
   const warnings: string[] = [];
   const rate = pickFirst(rates, "rate", warnings);
   const centre = pickFirst(centres, "centre frequency", warnings);
-  if (rate !== null && !(rate.value > 0 && Number.isFinite(rate.value))) {
-    throw new CaptureFormatError(path, `the file-name rate token ${rate.text} is not a positive, finite rate`);
-  }
-  if (centre !== null && !Number.isFinite(centre.value)) {
-    throw new CaptureFormatError(path, `the file-name centre token ${centre.text} is not a finite frequency`);
-  }
+  checkToken(path, rate, "rate", "S/s", sampleRateProblem);
+  checkToken(path, centre, "centre", "Hz", centerProblem);
   return { sampleRateHz: rate?.value ?? null, centerHz: centre?.value ?? null, warnings };
+}
+
+function checkToken(
+  path: string,
+  token: { text: string; value: number } | null,
+  what: string,
+  unit: string,
+  problemOf: (value: number) => string | null,
+): void {
+  const problem = token === null ? null : problemOf(token.value);
+  if (token !== null && problem !== null) {
+    throw new CaptureFormatError(path, `the file-name ${what} token ${token.text} (${token.value} ${unit}) ${problem}`);
+  }
 }
 
 function pickFirst(

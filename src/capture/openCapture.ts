@@ -9,12 +9,13 @@
  *   5. a RIFF/RF64 WAVE header in the first 12 bytes    → WAV
  *   otherwise a UsageError asking for --format.
  */
-import { open, type FileHandle } from "node:fs/promises";
+import type { FileHandle } from "node:fs/promises";
 import { CaptureFormatError, UsageError } from "../errors.js";
 import { checkCaptureOptions, type CaptureOptions } from "./captureOptions.js";
 import { extensionKind, fileExtension } from "./fileName.js";
 import { fileSource } from "./fileSource.js";
 import { readRawMeta } from "./rawReader.js";
+import { openRegularFile } from "./regularFile.js";
 import { readSigmfRecording, sigmfCaptureMeta, sigmfDataPath, sigmfPaths } from "./sigmfReader.js";
 import type { CaptureMeta, CaptureSource } from "./source.js";
 import { isWavMagic, readBytesAt } from "./wavChunks.js";
@@ -81,24 +82,4 @@ async function openSigmf(path: string, options: CaptureOptions): Promise<Capture
     await handle.close();
     throw e;
   }
-}
-
-/** Opens a regular file for reading; a missing or unreadable file or a directory is a CaptureFormatError. */
-async function openRegularFile(path: string, what = ""): Promise<{ handle: FileHandle; fileBytes: number }> {
-  let handle: FileHandle;
-  try {
-    handle = await open(path, "r");
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    if (code === "ENOENT") throw new CaptureFormatError(path, `no such file${what}`);
-    if (code === "EACCES" || code === "EPERM") throw new CaptureFormatError(path, `cannot be read: permission denied${what}`);
-    if (code === "EISDIR") throw new CaptureFormatError(path, `is a directory, not a capture file${what}`);
-    throw new CaptureFormatError(path, `cannot be opened${what} (${code ?? "unknown error"})`);
-  }
-  const s = await handle.stat();
-  if (!s.isFile()) {
-    await handle.close();
-    throw new CaptureFormatError(path, `is not a regular file${what}`);
-  }
-  return { handle, fileBytes: s.size };
 }

@@ -9,6 +9,7 @@
  * RFC 3339 with `Z`) gives a warning instead.
  */
 import { CaptureFormatError } from "../errors.js";
+import { centerProblem, sampleRateProblem } from "./acceptedRanges.js";
 import { parseSigmfDatatype, type SigmfDatatype } from "./sigmfDatatype.js";
 
 /** What iqaudit takes from a .sigmf-meta file. */
@@ -42,8 +43,8 @@ const DATETIME = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2}):(\d{2})(\.\d+)?Z$/;
 const BAD_FILE_NAME = /[/\\:*?"<>|]/;
 
 /**
- * Parses and checks the text of the .sigmf-meta file `metaPath`. Errors: CaptureFormatError
- * naming `metaPath` (see the rule above).
+ * Parses and checks the text of the .sigmf-meta file `metaPath` (a leading byte-order mark is
+ * skipped). Errors: CaptureFormatError naming `metaPath` (see the rule above).
  */
 export function parseSigmfMeta(text: string, metaPath: string): SigmfRecording {
   const fail = (problem: string): never => {
@@ -51,7 +52,9 @@ export function parseSigmfMeta(text: string, metaPath: string): SigmfRecording {
   };
   let root: Json;
   try {
-    root = JSON.parse(text) as Json;
+    // A UTF-8 byte-order mark (U+FEFF, as some editors write it) is not JSON, but a parser
+    // may ignore it (RFC 8259 §8.1, from memory): it is skipped.
+    root = JSON.parse(text.startsWith("\uFEFF") ? text.slice(1) : text) as Json;
   } catch (e) {
     return fail(`is not valid JSON (${oneLine((e as Error).message)})`);
   }
@@ -76,7 +79,8 @@ export function parseSigmfMeta(text: string, metaPath: string): SigmfRecording {
     warnings.push(`${metaPath} declares SigMF core:version ${version}; it is read as SigMF 1.x.`);
   }
   const sampleRateHz = g.number("core:sample_rate") ?? null;
-  if (sampleRateHz !== null && !(sampleRateHz > 0)) fail(`has global core:sample_rate ${sampleRateHz}; a sample rate must be positive`);
+  const rateProblem = sampleRateHz === null ? null : sampleRateProblem(sampleRateHz);
+  if (rateProblem !== null) fail(`has global core:sample_rate ${numberText(sampleRateHz as number)}, which ${rateProblem}`);
   const channels = g.integer("core:num_channels") ?? 1;
   if (channels !== 1) fail(`has core:num_channels ${channels}; iqaudit reads a dataset of 1 channel`);
   const offset = g.integer("core:offset") ?? 0;
@@ -122,6 +126,8 @@ export function parseSigmfMeta(text: string, metaPath: string): SigmfRecording {
     const first = segments[0];
     if (first !== undefined) {
       frequencyHz = first.frequencyHz;
+      const frequencyProblem = frequencyHz === null ? null : centerProblem(frequencyHz);
+      if (frequencyProblem !== null) fail(`has captures[0] core:frequency ${numberText(frequencyHz as number)}, which ${frequencyProblem}`);
       headerBytes = first.headerBytes;
       datetime = checkDatetime(first.datetime, metaPath, warnings);
       const firstIndex = first.sampleStart >= offset ? first.sampleStart - offset : first.sampleStart;
@@ -224,6 +230,11 @@ function describe(v: Json): string {
   if (typeof v === "object") return "an object";
   if (typeof v === "string") return `the string ${JSON.stringify(v.length > 40 ? `${v.slice(0, 40)}…` : v)}`;
   return `the ${typeof v} ${String(v)}`;
+}
+
+/** A JSON number as written, or what became of it: JSON.parse reads 1e400 as Infinity. */
+function numberText(x: number): string {
+  return Number.isFinite(x) ? String(x) : `${x} (a number beyond the range of a double, such as 1e400)`;
 }
 
 function oneLine(s: string): string {

@@ -3,13 +3,14 @@
  * core:dataset for a non-conforming dataset). Either path may be given. The metadata is checked
  * by sigmf.ts; this turns it and the data file's size into CaptureMeta.
  */
-import { readFile, stat } from "node:fs/promises";
+import { readFile } from "node:fs/promises";
 import { dirname, join } from "node:path";
 import { CaptureFormatError, UsageError } from "../errors.js";
 import { flagOrFound, overrideWarning, type CaptureOptions } from "./captureOptions.js";
 import { formatInfo } from "./sampleFormat.js";
 import { countFrames } from "./frameCount.js";
 import { parseSigmfMeta, type SigmfRecording } from "./sigmf.js";
+import { statRegularFile } from "./regularFile.js";
 import type { CaptureMeta, Origin, SampleFormat } from "./source.js";
 
 /** Largest .sigmf-meta read (it is read whole): 64 MiB of JSON is far beyond any real one. */
@@ -21,16 +22,16 @@ export function sigmfPaths(path: string): { metaPath: string; dataPath: string }
   return { metaPath: `${stem}.sigmf-meta`, dataPath: `${stem}.sigmf-data` };
 }
 
-/** Reads and checks the .sigmf-meta file; a missing or unreadable file is a CaptureFormatError. */
+/** Reads and checks the .sigmf-meta file; a missing, unreadable or non-regular file is a CaptureFormatError. */
 export async function readSigmfRecording(metaPath: string): Promise<SigmfRecording> {
-  let bytes: number;
-  try {
-    bytes = (await stat(metaPath)).size;
-  } catch {
-    throw new CaptureFormatError(metaPath, "no such file: a SigMF recording needs its .sigmf-meta beside the .sigmf-data");
-  }
+  const bytes = await statRegularFile(metaPath, "", "no such file: a SigMF recording needs its .sigmf-meta beside the .sigmf-data");
   if (bytes > MAX_META_BYTES) throw new CaptureFormatError(metaPath, `is ${bytes} bytes, too large for SigMF metadata (limit ${MAX_META_BYTES})`);
-  const text = await readFile(metaPath, "utf8");
+  let text: string;
+  try {
+    text = await readFile(metaPath, "utf8");
+  } catch (e) {
+    throw new CaptureFormatError(metaPath, `cannot be read (${(e as NodeJS.ErrnoException).code ?? "unknown error"})`);
+  }
   return parseSigmfMeta(text, metaPath);
 }
 

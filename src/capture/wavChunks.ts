@@ -47,66 +47,147 @@ export function isWavMagic(head: Uint8Array): boolean {
 /**
  * Walks the chunks of the WAVE file open in `handle` (`fileBytes` long). Errors
  * (CaptureFormatError naming `path` and the byte offset): too short, bad magic, a missing or
- * short ds64 in RF64, a chunk id that is not printable ASCII, a chunk header cut off before any
- * data chunk, a chunk whose body runs past the end of the file.
+ * short ds64 in RF64, a chunk id before the data that is not printable ASCII, a chunk header
+ * cut off before any data chunk, a chunk before the data whose body runs past the end of the
+ * file. A data chunk that runs past the end, or one of size 0 in a RIFF of a size that ends
+ * there while bytes follow (sizes never written), is read to the end; a chunk after it that runs
+ * past the end or bytes after it that are no chunk are ignored; each with a warning.
  */
 export async function walkWavChunks(handle: FileHandle, fileBytes: number, path: string): Promise<WavLayout> {
+  const riff = await readRiffHead(handle, fileBytes, path);
   const warnings: string[] = [];
-  const head = await readBytesAt(handle, 0, 12);
-  if (head.byteLength < 12) {
-    throw new CaptureFormatError(path, `is too short for a WAV header (${fileBytes} bytes; a RIFF header takes 12)`, 0);
-  }
-  const formId = ascii(head, 0);
-  if (formId !== "RIFF" && formId !== "RF64" && formId !== "BW64") {
-    const hint = formId === "RIFX" ? " (big-endian RIFX WAV is not supported)" : "";
-    throw new CaptureFormatError(path, `is not a WAV file: it starts with "${printable(formId)}", not RIFF or RF64${hint}`, 0);
-  }
-  if (ascii(head, 8) !== "WAVE") {
-    throw new CaptureFormatError(path, `is a RIFF file of form "${printable(ascii(head, 8))}", not WAVE`, 8);
-  }
-  const form = formId;
-  const view = new DataView(head.buffer, head.byteOffset, 12);
-  let riffSize = view.getUint32(4, true);
-  const ds64 = form === "RIFF" ? null : await readDs64(handle, fileBytes, path);
-  if (ds64 !== null) riffSize = ds64.riffSize;
-
   const chunks: WavChunk[] = [];
   let position = 12;
+  let stoppedEarly = false;
   while (position < fileBytes) {
     if (chunks.length >= MAX_CHUNKS) {
       throw new CaptureFormatError(path, `has more than ${MAX_CHUNKS} chunks before byte ${position}; the header is corrupt`, position);
     }
-    const header = await readBytesAt(handle, position, 8);
-    if (header.byteLength < 8) {
-      const stray = fileBytes - position;
-      if (chunks.some((c) => c.id === "data")) {
-        warnings.push(`The last ${stray} bytes of ${path} are not a whole RIFF chunk and are ignored.`);
-        break;
-      }
-      throw new CaptureFormatError(path, `ends inside a chunk header at byte ${position} (${stray} of 8 bytes)`, position);
+    const step = await chunkAt(handle, position, riff, chunks.some((c) => c.id === "data"));
+    if (step.chunk !== null) chunks.push(step.chunk);
+    if (step.end !== null) {
+      warnings.push(step.end.warning);
+      stoppedEarly = step.end.early;
+      break;
     }
-    const id = ascii(header, 0);
-    if (!/^[\x20-\x7e]{4}$/.test(id)) {
-      throw new CaptureFormatError(path, `has a corrupt chunk header at byte ${position}: the id "${printable(id)}" is not 4 ASCII characters`, position);
-    }
-    const declared = new DataView(header.buffer, header.byteOffset, 8).getUint32(4, true);
-    const sizeBytes = declared === UINT32_MAX && ds64 !== null ? ds64Size(ds64, id, path, position) : declared;
-    const bodyOffsetBytes = position + 8;
-    if (bodyOffsetBytes + sizeBytes > fileBytes) {
-      throw new CaptureFormatError(
-        path,
-        `chunk "${id}" at byte ${position} declares ${sizeBytes} bytes but only ${fileBytes - bodyOffsetBytes} remain (the file is truncated or the header corrupt)`,
-        position,
-      );
-    }
-    chunks.push({ id, headerOffsetBytes: position, bodyOffsetBytes, sizeBytes });
+    const { bodyOffsetBytes, sizeBytes } = step.chunk as WavChunk;
     position = bodyOffsetBytes + sizeBytes + (sizeBytes % 2);
   }
-  const expected = riffSize + 8;
-  if (expected !== fileBytes && expected !== fileBytes + 1) {
-    warnings.push(`The ${form} size field of ${path} gives ${expected} bytes but the file has ${fileBytes}; the chunks are read as found.`);
+  const expected = riff.riffSize + 8;
+  // A walk that stopped early at a cut or at junk has said so already; the RIFF size then disagrees too.
+  if (!stoppedEarly && expected !== fileBytes && expected !== fileBytes + 1) {
+    warnings.push(`The ${riff.form} size field of ${path} gives ${expected} bytes but the file has ${fileBytes}; the chunks are read as found.`);
   }
-  return { form, chunks, warnings };
+  return { form: riff.form, chunks, warnings };
+}
+
+/** What the first 12 bytes (and ds64 for RF64) say about the whole file. */
+interface RiffHead {
+  readonly form: WavLayout["form"];
+  /** The RIFF size field (from ds64 for RF64): the file's length less 8. */
+  readonly riffSize: number;
+  readonly ds64: Ds64 | null;
+  readonly fileBytes: number;
+  readonly path: string;
+}
+
+async function readRiffHead(handle: FileHandle, fileBytes: number, path: string): Promise<RiffHead> {
+  const head = await readBytesAt(handle, 0, 12);
+  if (head.byteLength < 12) {
+    throw new CaptureFormatError(path, `is too short for a WAV header (${fileBytes} bytes; a RIFF header takes 12)`, 0);
+  }
+  const form = ascii(head, 0);
+  if (form !== "RIFF" && form !== "RF64" && form !== "BW64") {
+    const hint = form === "RIFX" ? " (big-endian RIFX WAV is not supported)" : "";
+    throw new CaptureFormatError(path, `is not a WAV file: it starts with "${printable(form)}", not RIFF or RF64${hint}`, 0);
+  }
+  if (ascii(head, 8) !== "WAVE") {
+    throw new CaptureFormatError(path, `is a RIFF file of form "${printable(ascii(head, 8))}", not WAVE`, 8);
+  }
+  const ds64 = form === "RIFF" ? null : await readDs64(handle, fileBytes, path);
+  const riffSize = ds64?.riffSize ?? new DataView(head.buffer, head.byteOffset, 12).getUint32(4, true);
+  return { form, riffSize, ds64, fileBytes, path };
+}
+
+/**
+ * The chunk whose header is at `position`, and whether the walk ends there (with the warning
+ * that says why, and whether it ended before the end of the file). `afterData`: a data chunk
+ * was found before this one, so what cannot be read from here on can be ignored.
+ */
+async function chunkAt(
+  handle: FileHandle,
+  position: number,
+  riff: RiffHead,
+  afterData: boolean,
+): Promise<{ chunk: WavChunk | null; end: { warning: string; early: boolean } | null }> {
+  const { fileBytes, path, ds64 } = riff;
+  const header = await readBytesAt(handle, position, 8);
+  if (header.byteLength < 8) {
+    const stray = fileBytes - position;
+    if (!afterData) throw new CaptureFormatError(path, `ends inside a chunk header at byte ${position} (${stray} of 8 bytes)`, position);
+    return { chunk: null, end: { warning: `The last ${stray} bytes of ${path} are not a whole RIFF chunk and are ignored.`, early: false } };
+  }
+  const id = ascii(header, 0);
+  if (!/^[\x20-\x7e]{4}$/.test(id)) {
+    if (!afterData) {
+      throw new CaptureFormatError(path, `has a corrupt chunk header at byte ${position}: the id "${printable(id)}" is not 4 ASCII characters`, position);
+    }
+    // The samples are known; what follows them (junk a recorder appended) is not needed.
+    const warning = `The ${fileBytes - position} bytes after byte ${position} of ${path} are not a RIFF chunk and are ignored.`;
+    return { chunk: null, end: { warning, early: true } };
+  }
+  const declared = new DataView(header.buffer, header.byteOffset, 8).getUint32(4, true);
+  const sizeBytes = declared === UINT32_MAX && ds64 !== null ? ds64Size(ds64, id, path, position) : declared;
+  const chunk: WavChunk = { id, headerOffsetBytes: position, bodyOffsetBytes: position + 8, sizeBytes };
+  if (id === "data" && !afterData && sizeBytes === 0 && riff.riffSize + 8 <= chunk.bodyOffsetBytes && chunk.bodyOffsetBytes < fileBytes) {
+    // Both sizes say the file ends at the data chunk's header, yet bytes follow: a recorder
+    // that writes its sizes on closing stopped before it could. Read on to the end.
+    const follow = fileBytes - chunk.bodyOffsetBytes;
+    const warning =
+      `The data chunk of ${path} declares 0 bytes and the ${riff.form} size ends the file there, but ${follow} bytes ` +
+      "follow (a recorder that stopped before writing its sizes); the samples are read to the end of the file.";
+    return { chunk: { ...chunk, sizeBytes: follow }, end: { warning, early: true } };
+  }
+  if (chunk.bodyOffsetBytes + sizeBytes > fileBytes) {
+    const placeholder = declared === UINT32_MAX && ds64 === null;
+    const cut = cutShortChunk(chunk, placeholder, afterData, fileBytes, path);
+    return { chunk: cut.chunk, end: { warning: cut.warning, early: true } };
+  }
+  return { chunk, end: null };
+}
+
+/**
+ * A chunk whose body runs past the end of the file. The first data chunk is what a recorder
+ * that crashed (or one that streams and writes 0xFFFFFFFF as its size) leaves: it is read to the
+ * end of the file, as a raw file is, with a warning. Any chunk after a data chunk is ignored with
+ * a warning. A chunk before the data cannot be skipped (the data's position is unknown): an error.
+ */
+function cutShortChunk(
+  chunk: WavChunk,
+  placeholder: boolean,
+  afterData: boolean,
+  fileBytes: number,
+  path: string,
+): { chunk: WavChunk | null; warning: string } {
+  const remaining = fileBytes - chunk.bodyOffsetBytes;
+  const at = `chunk "${chunk.id}" at byte ${chunk.headerOffsetBytes}`;
+  if (afterData) {
+    return { chunk: null, warning: `The ${at} of ${path} declares ${chunk.sizeBytes} bytes but only ${remaining} remain; it is ignored.` };
+  }
+  if (chunk.id !== "data") {
+    throw new CaptureFormatError(
+      path,
+      `${at} declares ${chunk.sizeBytes} bytes but only ${remaining} remain (the file is truncated or the header corrupt)`,
+      chunk.headerOffsetBytes,
+    );
+  }
+  const why = placeholder
+    ? "0xFFFFFFFF bytes, the size a recorder that streams writes before it knows the length"
+    : `${chunk.sizeBytes} bytes but the file holds only ${remaining} after its header (the recording was cut short)`;
+  return {
+    chunk: { ...chunk, sizeBytes: remaining },
+    warning: `The data chunk of ${path} declares ${why}; the samples are read to the end of the file.`,
+  };
 }
 
 interface Ds64 {

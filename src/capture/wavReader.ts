@@ -6,6 +6,7 @@
  */
 import type { FileHandle } from "node:fs/promises";
 import { CaptureFormatError } from "../errors.js";
+import { sampleRateProblem } from "./acceptedRanges.js";
 import type { CaptureOptions } from "./captureOptions.js";
 import { flagOrFound } from "./captureOptions.js";
 import { fileNameTokens } from "./fileName.js";
@@ -20,7 +21,8 @@ import type { CaptureMeta, SampleFormat } from "./source.js";
  * warning when they differ. Centre from --center, else a file-name token (fileName.ts), else
  * unknown. Errors: CaptureFormatError for a corrupt or truncated header, a missing fmt or data
  * chunk, an unsupported encoding, a 1-channel file without `real`, more than 2 channels, a
- * rate of 0, a data chunk with no whole sample.
+ * header rate outside the accepted range (acceptedRanges.ts) without --rate, a data chunk with
+ * no whole sample.
  */
 export async function readWavMeta(
   path: string,
@@ -44,8 +46,13 @@ export async function readWavMeta(
   const format = wavSampleFormat(fmt, complex);
 
   const rate = flagOrFound("--rate", options.sampleRateHz, fmt.sampleRateHz, "wav-header", "WAV header rate", warnings);
-  if (rate.value === 0) {
-    throw new CaptureFormatError(path, "has a sample rate of 0 in its fmt chunk; give the rate with --rate", fmtChunk.bodyOffsetBytes + 4);
+  const rateProblem = rate.origin === "wav-header" ? sampleRateProblem(fmt.sampleRateHz) : null;
+  if (rateProblem !== null) {
+    throw new CaptureFormatError(
+      path,
+      `has a sample rate of ${fmt.sampleRateHz} in its fmt chunk, which ${rateProblem}; give the rate with --rate`,
+      fmtChunk.bodyOffsetBytes + 4,
+    );
   }
   const tokens = fileNameTokens(path);
   warnings.push(...tokens.warnings);

@@ -13,7 +13,7 @@ export function addCaptureOptions(cmd: Command): Command {
         FORMAT_CHOICES,
       ),
     )
-    .option("--rate <Hz>", "sample rate, e.g. 2.4M, 48k, 2.4e6 (required for a raw file without metadata)")
+    .option("--rate <Hz>", "sample rate, 1k to 1T, e.g. 2.4M, 48k, 2.4e6 (required for a raw file without metadata)")
     .option("--center <Hz>", "RF centre frequency of the capture, e.g. 156.8M: results then also as absolute frequencies")
     .option("--ppm <x>", "known receiver clock error in ppm, removed from every frequency")
     .option("--start <s>", "analyse from this time (seconds from the first sample; 250ms also works)")

@@ -53,7 +53,7 @@ describe("openCapture(bad raw input)", () => {
     }
   });
   it("openCapture(a zero rate token in the file name) is a CaptureFormatError", async () => {
-    await expectError(put("bad_0sps.cu8", Buffer.alloc(64)), {}, CaptureFormatError, /0sps is not a positive/);
+    await expectError(put("bad_0sps.cu8", Buffer.alloc(64)), {}, CaptureFormatError, /0sps \(0 S\/s\) is not a sample rate: it must be a positive/);
   });
   it("openCapture(non-finite --center or --ppm) is a UsageError", async () => {
     const path = put("centre.cu8", Buffer.alloc(64));
@@ -61,7 +61,7 @@ describe("openCapture(bad raw input)", () => {
     await expectError(path, { sampleRateHz: 1e6, ppm: Number.POSITIVE_INFINITY }, UsageError, /^--ppm:/, "--ppm");
   });
   it("openCapture(a directory) is a CaptureFormatError", async () => {
-    await expectError(dir, { sampleRateHz: 1e6, format: "cu8" }, CaptureFormatError, /not a regular file/);
+    await expectError(dir, { sampleRateHz: 1e6, format: "cu8" }, CaptureFormatError, /is a directory, not a capture file/);
   });
   it("openCapture(SigMF archive .sigmf) is a CaptureFormatError asking to extract it", async () => {
     await expectError(put("pack.sigmf", Buffer.alloc(512)), {}, CaptureFormatError, /SigMF archive/);
@@ -76,7 +76,6 @@ describe("openCapture(bad WAV input)", () => {
     ["header cut inside a chunk header", goodWav.subarray(0, 16), /ends inside a chunk header at byte 12/],
     ["fmt missing", riffFile([data4]), /without a fmt chunk/],
     ["data missing", riffFile([fmt16]), /without a data chunk/],
-    ["data chunk past EOF (truncated file)", goodWav.subarray(0, goodWav.byteLength - 4), /chunk "data" at byte 36 declares 12 bytes but only 8 remain/],
     ["chunk past EOF before data", riffFile([fmt16, riffChunk("LIST", Buffer.alloc(4), 4000)]), /chunk "LIST" .* declares 4000 bytes/],
     ["garbage chunk id", riffFile([fmt16, Buffer.from([0, 1, 2, 3, 4, 0, 0, 0]), data4]), /corrupt chunk header/],
     ["A-law", riffFile([riffChunk("fmt ", fmtBody(6, 2, 8000, 8)), data4]), /encoding 0x0006 \(A-law\), which is not supported/],
@@ -124,7 +123,7 @@ describe("openCapture(bad SigMF metadata)", () => {
     ["datatype big-endian float", doc({ ...good, "core:datatype": "cf32_be" }), /cf32_be, a valid SigMF datatype that iqaudit cannot decode/],
     ["real without --real", doc({ ...good, "core:datatype": "rf32_le" }), /real datatype rf32_le.*--real/],
     ["sample_rate a string", doc({ ...good, "core:sample_rate": "1M" }), /core:sample_rate = the string "1M"; SigMF requires a number/],
-    ["sample_rate zero", doc({ ...good, "core:sample_rate": 0 }), /core:sample_rate 0; a sample rate must be positive/],
+    ["sample_rate zero", doc({ ...good, "core:sample_rate": 0 }), /core:sample_rate 0, which is not a sample rate: it must be a positive/],
     ["two channels", doc({ ...good, "core:num_channels": 2 }), /core:num_channels 2/],
     ["num_channels fractional", doc({ ...good, "core:num_channels": 1.5 }), /non-negative integer/],
     ["version a number", doc({ ...good, "core:version": 1 }), /core:version = the number 1/],

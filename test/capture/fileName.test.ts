@@ -18,6 +18,17 @@ describe("fileNameTokens(path)", () => {
     expect(fileNameTokens("capture.2Msps")).toEqual({ sampleRateHz: null, centerHz: null, warnings: [] });
   });
 
+  it("fileNameTokens reads a token with a signed exponent whole, or not at all (docs/formats.md convention)", () => {
+    // 1e-300sps is one token: 1e-300 S/s, below the accepted range, so it is refused and never read as 300sps.
+    expect(() => fileNameTokens("x_1e-300sps.cf32")).toThrow(/rate token 1e-300sps \(1e-300 S\/s\) is below 1 kS\/s/);
+    expect(fileNameTokens("x_2.4e+6sps.cf32")).toMatchObject({ sampleRateHz: 2.4e6 });
+    expect(fileNameTokens("x_2.5e-3GHz.cf32")).toMatchObject({ centerHz: 2.5e6 });
+    // A sign after anything but <digit>e is still a separator.
+    expect(fileNameTokens("site-250ksps-e-1MHz.cf32")).toMatchObject({ sampleRateHz: 250000, centerHz: 1e6 });
+    // A token that only ends in a quantity is ignored whole.
+    expect(fileNameTokens("run1e-5sps_48ksps.cf32")).toMatchObject({ sampleRateHz: 48000 });
+  });
+
   it("fileNameTokens uses the first of two disagreeing tokens, with a warning", () => {
     const t = fileNameTokens("a_1Msps_2Msps.cu8");
     expect(t.sampleRateHz).toBe(1e6);

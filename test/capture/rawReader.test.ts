@@ -53,14 +53,14 @@ describe("openCapture(raw file)", () => {
 
   it("openCapture(cu8 / ci8 / ci16) maps the extreme codes as the contract says (interface.md conventions)", async () => {
     // cu8: u = 0 → −1, 255 → +1, 127 → −0.5/127.5, 128 → +0.5/127.5 (offset binary, centre 127.5).
-    const cu8 = await openCapture(put("codes.cu8", Buffer.from([0, 255, 127, 128])), { sampleRateHz: 1 });
+    const cu8 = await openCapture(put("codes.cu8", Buffer.from([0, 255, 127, 128])), { sampleRateHz: 1e6 });
     expect(Array.from(await readAll(cu8))).toEqual([-1, 1, Math.fround(-0.5 / 127.5), Math.fround(0.5 / 127.5)]);
     // ci8: two's complement 0x80 = −128 → −1, 0x7F = 127 → 127/128.
-    const ci8 = await openCapture(put("codes.cs8", Buffer.from([0x80, 0x7f])), { sampleRateHz: 1 });
+    const ci8 = await openCapture(put("codes.cs8", Buffer.from([0x80, 0x7f])), { sampleRateHz: 1e6 });
     expect(Array.from(await readAll(ci8))).toEqual([-1, 127 / 128]);
     // ci16_be: 0x8000 = −32768 → −1, 0x4000 = 16384 → 0.5; the same codes little-endian.
-    const be = await openCapture(put("codes_be.bin", Buffer.from([0x80, 0x00, 0x40, 0x00])), { sampleRateHz: 1, format: "ci16_be" });
-    const le = await openCapture(put("codes_le.cs16", Buffer.from([0x00, 0x80, 0x00, 0x40])), { sampleRateHz: 1 });
+    const be = await openCapture(put("codes_be.bin", Buffer.from([0x80, 0x00, 0x40, 0x00])), { sampleRateHz: 1e6, format: "ci16_be" });
+    const le = await openCapture(put("codes_le.cs16", Buffer.from([0x00, 0x80, 0x00, 0x40])), { sampleRateHz: 1e6 });
     expect(Array.from(await readAll(be))).toEqual([-1, 0.5]);
     expect(Array.from(await readAll(le))).toEqual([-1, 0.5]);
     await Promise.all([cu8.close(), ci8.close(), be.close(), le.close()]);

@@ -6,7 +6,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { encodeSamples, encodeWav } from "../../src/capture/index.js";
-import { runCli } from "../helpers/runCli.js";
+import { expectOneErrorLine, runCli } from "../helpers/runCli.js";
 
 const dir = mkdtempSync(join(tmpdir(), "iqaudit-bad-"));
 
@@ -28,14 +28,7 @@ function file(name: string, bytes: Uint8Array | string): string {
 function expectOneLineError(args: string[], mentions: string): void {
   const png = join(dir, `out-${Math.random().toString(36).slice(2)}.png`);
   for (const command of [["inspect", ...args], ["spectrogram", ...args, "-o", png]]) {
-    const r = runCli(command);
-    expect(r.status, r.stderr).toBe(2);
-    expect(r.stdout).toBe("");
-    const lines = r.stderr.split("\n").filter((l) => l.length > 0);
-    expect(lines, r.stderr).toHaveLength(1);
-    expect(lines[0]).toMatch(/^iqaudit: /);
-    expect(lines[0]).toContain(mentions);
-    expect(r.stderr).not.toMatch(/\n\s+at /); // no stack trace
+    expect(expectOneErrorLine(runCli(command))).toContain(mentions);
     expect(existsSync(png)).toBe(false);
   }
 }
