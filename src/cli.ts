@@ -19,6 +19,8 @@ import { inspectText } from "./report/inspectText.js";
 import { measureCommand } from "./commands/measure.js";
 import { measureText } from "./report/measureText.js";
 import { MEASURE_MODES, type MeasureMode } from "./analysis/measureEmission.js";
+import { parseOutPath, writeStdout } from "./cli/stdout.js";
+import { removeTemporaries } from "./report/index.js";
 
 interface GlobalFlags {
   quiet?: boolean;
@@ -59,7 +61,7 @@ function program(): Command {
       });
       progress.done();
       warn(report.warnings);
-      process.stdout.write(flags.json === true ? `${JSON.stringify(report, null, 2)}\n` : inspectText(report));
+      await writeStdout(flags.json === true ? `${JSON.stringify(report, null, 2)}\n` : inspectText(report));
     });
 
   addCaptureOptions(
@@ -68,7 +70,7 @@ function program(): Command {
       .argument("<capture>", "capture file")
       .description("write a spectrogram PNG: frequency across, time down, dBFS/Hz colour bar, axes and title"),
   )
-    .requiredOption("-o, --output <file.png>", "the PNG to write (written to a temporary name, then renamed)")
+    .requiredOption("-o, --out <file.png>", "the PNG to write (written to a temporary name, then renamed)")
     .option("--fft <n>", "FFT length of each frame, a power of two", String(SPECTROGRAM_DEFAULTS.fftLength))
     .option("--rows <n>", "number of time rows, whatever the duration", String(SPECTROGRAM_DEFAULTS.rows))
     .option("--size <WxH>", "image size in pixels", `${SPECTROGRAM_DEFAULTS.widthPx}x${SPECTROGRAM_DEFAULTS.heightPx}`)
@@ -79,13 +81,13 @@ function program(): Command {
     .action(
       async (
         path: string,
-        flags: RawCaptureFlags & { output: string; fft: string; rows: string; size: string; dbRange?: string; reduce: "mean" | "max"; json?: boolean },
+        flags: RawCaptureFlags & { out: string; fft: string; rows: string; size: string; dbRange?: string; reduce: "mean" | "max"; json?: boolean },
       ) => {
         const [widthPx, heightPx] = parseSize(flags.size);
         const progress = createProgress(`spectrogram ${path}`, !quiet());
         const summary = await spectrogramCommand(path, {
           capture: captureArgs(flags),
-          outputPath: flags.output,
+          outputPath: parseOutPath("--out", flags.out),
           fftLength: parseFftLength("--fft", flags.fft),
           rows: parseCount("--rows", flags.rows),
           widthPx,
@@ -96,7 +98,7 @@ function program(): Command {
         });
         progress.done();
         warn(summary.warnings);
-        if (flags.json === true) process.stdout.write(`${JSON.stringify(summary, null, 2)}\n`);
+        if (flags.json === true) await writeStdout(`${JSON.stringify(summary, null, 2)}\n`);
       },
     );
 
@@ -119,7 +121,7 @@ function program(): Command {
     .option("--order <n>", "order of a digital emission: 2, 4, 8 (psk), 16, 32, 64 (qam), 2 or 4 (fsk)")
     .option("--symbol-rate <Bd>", "symbol rate of a digital emission, e.g. 19.2k (default: found blind)")
     .option("--rolloff <alpha>", "RRC roll-off of a PSK/QAM emission (default: estimated from its occupied bandwidth)")
-    .option("-o, --out <dir>", "write report.json, report.md and the figures (PNG) into this folder")
+    .option("-o, --out <dir>", "write report.json, report.md and the figures (PNG) into this folder, published whole (an earlier report there is replaced)")
     .option("--json", "print the report as one JSON document on stdout (schema iqaudit/report/1)")
     .addHelpText(
       "after",
@@ -146,24 +148,23 @@ function program(): Command {
           order: flags.order === undefined ? undefined : parseCount("--order", flags.order, 2),
           symbolRateBd: flags.symbolRate === undefined ? undefined : parseQuantity("--symbol-rate", flags.symbolRate, { unit: "none", min: 0 }),
           rollOff: flags.rolloff === undefined ? undefined : parseQuantity("--rolloff", flags.rolloff, { unit: "none", min: 0 }),
-          outDir: flags.out,
+          outDir: flags.out === undefined ? undefined : parseOutPath("--out", flags.out),
           pass1: { onProgress: progress.onProgress },
         });
         progress.done();
         warn(result.report.warnings);
-        if (flags.json === true) process.stdout.write(`${JSON.stringify(result.report, null, 2)}\n`);
-        else process.stdout.write(measureText(result.report, result.files));
+        await writeStdout(flags.json === true ? `${JSON.stringify(result.report, null, 2)}\n` : measureText(result.report, result.files));
       },
     );
 
   root
     .command("demo")
     .description("write the bundled sample scenario's captures (if missing) and run the tool on them")
-    .option("--out <dir>", "where to write the captures and results", "iqaudit-demo")
+    .option("-o, --out <dir>", "where to write the captures and results", "iqaudit-demo")
     .action(async (flags: { out: string }) => {
-      const summary = await demoCommand({ outDir: flags.out, progress: (label) => createProgress(label, !quiet()) });
+      const summary = await demoCommand({ outDir: parseOutPath("--out", flags.out), progress: (label) => createProgress(label, !quiet()) });
       warn(summary.warnings);
-      process.stdout.write(summary.text);
+      await writeStdout(summary.text);
     });
   return root;
 }
@@ -251,11 +252,20 @@ export async function main(argv: readonly string[]): Promise<number> {
   }
 }
 
-// A reader that stops early (`iqaudit inspect x | head`) is not an error of ours.
+// A reader that stops early (`iqaudit inspect x | head`) is not an error of ours; any other
+// failure of stdout reaches main through writeStdout's callback.
 process.stdout.on("error", (e: NodeJS.ErrnoException) => {
   if (e.code === "EPIPE") process.exit(0);
-  throw e;
 });
+
+// Interrupted (Ctrl-C, kill): remove this run's temporary files and folders, then end by the
+// same signal, as a shell expects.
+for (const signal of ["SIGINT", "SIGTERM", "SIGHUP"] as const) {
+  process.once(signal, () => {
+    removeTemporaries();
+    process.kill(process.pid, signal);
+  });
+}
 
 main(process.argv).then(
   (code) => {

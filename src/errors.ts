@@ -7,7 +7,8 @@ export type IqauditErrorCode =
   | "capture_format" // a capture file that cannot be read as claimed
   | "usage" // a bad option or option value
   | "parameter" // a parameter outside its bound (library use)
-  | "licence_file"; // a licence file that cannot be used
+  | "licence_file" // a licence file that cannot be used
+  | "output"; // an output file, folder or stdout that cannot be written
 
 export class IqauditError extends Error {
   readonly code: IqauditErrorCode;
@@ -46,6 +47,19 @@ export class ParameterError extends IqauditError {
   constructor(parameter: string, problem: string) {
     super("parameter", parameter, problem);
     this.name = "ParameterError";
+  }
+}
+
+/**
+ * An output that cannot be written (a full disk, a folder that is not ours to replace, stdout
+ * closed on a full device). `target` is the path the user gave (or "stdout"), never a temporary name.
+ */
+export class OutputError extends IqauditError {
+  readonly target: string;
+  constructor(target: string, problem: string) {
+    super("output", target, problem);
+    this.name = "OutputError";
+    this.target = target;
   }
 }
 

@@ -1,7 +1,9 @@
 /**
  * `iqaudit demo`: writes the sample scenario's captures into <out>/captures (if missing) and runs
  * every command that exists so far on each of them, into <out>/<capture name>/. It grows with
- * each capability of the tool.
+ * each capability of the tool. Each capture's folder is published whole (publishFolder): its
+ * inspect.json, written last, lists every other file of it (the measure-* report folders' files
+ * too) with its SHA-256.
  */
 import { basename, join } from "node:path";
 import { SCENARIO_CAPTURES, emissionEdgesHz, scenarioTransmitter, writeScenario, type ScenarioFile } from "../scenario/index.js";
@@ -12,7 +14,8 @@ import { measureCommand } from "./measure.js";
 import type { CaptureArgs } from "./analyseCapture.js";
 import type { Pass1Options } from "../analysis/index.js";
 import { inspectText } from "../report/inspectText.js";
-import { writeFileAtomic } from "../report/index.js";
+import { publishFolder, writeFileAtomic, type FolderSpec, type FolderWriter } from "../report/index.js";
+import type { InspectReport } from "../report/inspectReport.js";
 import { formatHz } from "../report/format.js";
 
 export interface DemoOptions {
@@ -37,18 +40,10 @@ export async function demoCommand(options: DemoOptions): Promise<DemoSummary> {
   for (const file of scenario) {
     const name = basename(file.path).replace(/\.[^.]+$/, "");
     const dir = join(options.outDir, name);
-    const capture = scenarioArgs(file);
-    const progress = options.progress?.(`inspect ${basename(file.path)}`) ?? { onProgress: undefined, done: () => undefined };
-    const report = await inspectCommand(file.path, { capture, pass1: { onProgress: progress.onProgress } });
-    progress.done();
+    const { report, measured, rows } = await publishFolder(dir, DEMO_FOLDER, (w) => demoFolder(file, w, options));
     const inspectJson = join(dir, "inspect.json");
-    await writeFileAtomic(inspectJson, `${JSON.stringify(report, null, 2)}\n`);
-    await writeFileAtomic(join(dir, "inspect.txt"), inspectText(report));
     const png = join(dir, "spectrogram.png");
-    const s = await spectrogramCommand(file.path, { capture, outputPath: png });
     written.push(inspectJson, join(dir, "inspect.txt"), png);
-    // Each transmitter of the capture, measured in its assigned channel against its nominal frequency.
-    const measured = await measureTransmitters(file, capture, dir);
     for (const m of measured) written.push(...m.files);
     warnings.push(...report.warnings.map((w) => `${basename(file.path)}: ${w}`));
     for (const m of measured) {
@@ -62,7 +57,7 @@ export async function demoCommand(options: DemoOptions): Promise<DemoSummary> {
         `at ${report.spectrum.peakDbfs.toFixed(1)} dBFS; clipping ${q.clippingPercent.toFixed(3)} %; ` +
         `IQ ${q.iqGainImbalanceDb.toFixed(2)} dB / ${q.iqPhaseImbalanceDeg.toFixed(2)}°`,
       ...measured.map((m) => `  ${m.label}: ${measuredLine(m.report)}\n    -> ${m.files[m.files.length - 1] ?? ""}`),
-      `  -> ${inspectJson}, ${png} (${s.rows} rows)`,
+      `  -> ${inspectJson}, ${png} (${rows} rows)`,
       "",
     );
   }
@@ -70,6 +65,32 @@ export async function demoCommand(options: DemoOptions): Promise<DemoSummary> {
   const text = lines.join("\n");
   await writeFileAtomic(join(options.outDir, "SUMMARY.txt"), text);
   return { outDir: options.outDir, files: written, text, warnings };
+}
+
+/** A demo capture folder: inspect.json is its manifest; folders of an earlier version had no `files` in it. */
+const DEMO_FOLDER: FolderSpec = {
+  manifest: "inspect.json",
+  legacyEntry: (name) => name === "inspect.txt" || name === "spectrogram.png" || name.startsWith("measure-"),
+};
+
+interface DemoFolder {
+  readonly report: InspectReport;
+  readonly measured: readonly MeasuredTransmitter[];
+  readonly rows: number;
+}
+
+/** One capture's folder: inspect.txt, spectrogram.png, a measure-<transmitter>/ report folder each, inspect.json last. */
+async function demoFolder(file: ScenarioFile, w: FolderWriter, options: DemoOptions): Promise<DemoFolder> {
+  const capture = scenarioArgs(file);
+  const progress = options.progress?.(`inspect ${basename(file.path)}`) ?? { onProgress: undefined, done: () => undefined };
+  const report = await inspectCommand(file.path, { capture, pass1: { onProgress: progress.onProgress } });
+  progress.done();
+  await w.write("inspect.txt", inspectText(report));
+  const s = await spectrogramCommand(file.path, { capture, outputPath: "spectrogram.png", outFolder: w });
+  // Each transmitter of the capture, measured in its assigned channel against its nominal frequency.
+  const measured = await measureTransmitters(file, capture, w);
+  await w.write("inspect.json", `${JSON.stringify({ ...report, files: w.files() }, null, 2)}\n`);
+  return { report, measured, rows: s.rows };
 }
 
 /**
@@ -87,7 +108,7 @@ interface MeasuredTransmitter {
 }
 
 /** The scenario's transmitters in this capture, each measured in its channel (skipped when the channel is not inside the capture). */
-async function measureTransmitters(file: ScenarioFile, capture: CaptureArgs, dir: string): Promise<MeasuredTransmitter[]> {
+async function measureTransmitters(file: ScenarioFile, capture: CaptureArgs, folder: FolderWriter): Promise<MeasuredTransmitter[]> {
   const scenario = SCENARIO_CAPTURES.find((c) => c.id === file.captureId);
   if (scenario === undefined) return [];
   const out: MeasuredTransmitter[] = [];
@@ -103,7 +124,7 @@ async function measureTransmitters(file: ScenarioFile, capture: CaptureArgs, dir
       capture,
       channel: { offsetHz, widthHz },
       nominalHz: tx.nominalFrequencyHz,
-      outDir: join(dir, `measure-${tx.id}`),
+      outFolder: folder.sub(`measure-${tx.id}`),
     });
     out.push({ label: tx.label, report: r.report, files: r.files });
   }

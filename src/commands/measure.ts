@@ -12,40 +12,52 @@ import { buildMeasureReport, type MeasureReport } from "../report/measureReport.
 import { measureMarkdown } from "../report/measureMarkdown.js";
 import { constellationFigure, frequencyHistogramFigure, spectrumFigure, traceFigure } from "../report/measureFigures.js";
 import { spectrogramFigure } from "../report/spectrogramFigure.js";
-import { writeFileAtomic } from "../report/index.js";
+import { publishFolder, REPORT_FOLDER, type FolderWriter } from "../report/index.js";
 import { formatHz } from "../report/format.js";
 
 export interface MeasureOptions extends MeasureEmissionOptions {
   readonly capture: CaptureArgs;
-  /** Folder for report.json, report.md and the figures; nothing is written without it. */
+  /** Folder for report.json, report.md and the figures, published whole; nothing is written without it. */
   readonly outDir?: string | undefined;
+  /** Instead of outDir: a folder inside one being published (the demo's), written into as it is. */
+  readonly outFolder?: FolderWriter | undefined;
   readonly pass1?: Pass1Options | undefined;
 }
 
 export interface MeasureResult {
   readonly report: MeasureReport;
-  /** Files written, report.json last. */
+  /** Files written (in the folder's final place), report.json last. */
   readonly files: readonly string[];
 }
 
 export async function measureCommand(path: string, options: MeasureOptions): Promise<MeasureResult> {
+  const { outDir, outFolder } = options;
+  if (outFolder !== undefined) return measured(path, options, (a, f, r) => writeReportFolder(outFolder, a, f, r));
+  if (outDir === undefined) return measured(path, options, async (_a, _f, report) => ({ report, files: [] }));
+  return publishFolder(outDir, REPORT_FOLDER, (w) => measured(path, options, (a, f, r) => writeReportFolder(w, a, f, r)));
+}
+
+/** Pass 1, pass 2 and the report, handed to `then` while the capture is open. */
+async function measured<T>(path: string, options: MeasureOptions, then: (a: AnalysedCapture, f: EmissionFigures, r: MeasureReport) => Promise<T>): Promise<T> {
   return withAnalysedCapture(path, options.capture, options.pass1 ?? {}, async (a, source) => {
     const figures = await measureEmission(source, a.span, a.pass1, options);
-    const report = buildMeasureReport(a.meta, a.span, a.pass1, figures, a.warnings);
-    const files = options.outDir === undefined ? [] : await writeReportFolder(options.outDir, a, figures, report);
-    return { report, files };
+    return then(a, figures, buildMeasureReport(a.meta, a.span, a.pass1, figures, a.warnings));
   }, (meta, span) => checkMeasureOptions(options, meta, span));
 }
 
-/** Figures first, then report.md, then report.json: a folder with report.json in it is complete. */
-async function writeReportFolder(dir: string, a: AnalysedCapture, f: EmissionFigures, r: MeasureReport): Promise<string[]> {
+/** Figures first, then report.md, then report.json listing both with their SHA-256. */
+async function writeReportFolder(w: FolderWriter, a: AnalysedCapture, f: EmissionFigures, r: MeasureReport): Promise<MeasureResult> {
+  await writeFigures(w, a, f, r);
+  const pngs = w.files().map((file) => file.path);
+  await w.write("report.md", measureMarkdown(r, pngs));
+  const report: MeasureReport = { ...r, files: w.files() };
+  await w.write("report.json", `${JSON.stringify(report, null, 2)}\n`);
+  return { report, files: w.files().map((file) => join(w.target, file.path)) };
+}
+
+async function writeFigures(w: FolderWriter, a: AnalysedCapture, f: EmissionFigures, r: MeasureReport): Promise<void> {
   const name = basename(a.meta.path);
-  const written: string[] = [];
-  const put = async (file: string, data: string | Uint8Array): Promise<void> => {
-    const p = join(dir, file);
-    await writeFileAtomic(p, data);
-    written.push(p);
-  };
+  const put = (file: string, data: Uint8Array): Promise<void> => w.write(file, data);
   await put("spectrogram.png", spectrogramFigure(a, { title: name, widthPx: 1200, heightPx: 800, reduce: "mean" }).png);
   if (f.channelPsd !== null) {
     const xDbLevel = r.bandwidth.xDbHz === null ? null : maxDb(f.channelPsd.densityPerHz) - r.bandwidth.xDb;
@@ -128,10 +140,6 @@ async function writeReportFolder(dir: string, a: AnalysedCapture, f: EmissionFig
       }),
     );
   }
-  const pngs = written.map((p) => basename(p));
-  await put("report.md", measureMarkdown(r, pngs));
-  await put("report.json", `${JSON.stringify(r, null, 2)}\n`);
-  return written;
 }
 
 function maxDb(d: Float64Array): number {

@@ -1,13 +1,16 @@
 /** `iqaudit spectrogram <capture> -o out.png`: the picture, written atomically. */
-import { basename } from "node:path";
+import { basename, join } from "node:path";
 import { analyseCapture, type CaptureArgs } from "./analyseCapture.js";
 import { spectrogramFigure } from "../report/spectrogramFigure.js";
-import { writeFileAtomic } from "../report/index.js";
+import { checkFileTarget, writeFileAtomic, type FolderWriter } from "../report/index.js";
 import type { Pass1Options } from "../analysis/index.js";
 
 export interface SpectrogramOptions {
   readonly capture: CaptureArgs;
+  /** The PNG to write; with `outFolder`, its name inside that folder. */
   readonly outputPath: string;
+  /** A folder being published (the demo's): the PNG is written into it instead of on its own. */
+  readonly outFolder?: FolderWriter | undefined;
   /** Frame length of the spectrogram rows, samples (default 1024). */
   readonly fftLength?: number | undefined;
   readonly rows?: number | undefined;
@@ -36,6 +39,8 @@ export interface SpectrogramSummary {
 export const SPECTROGRAM_DEFAULTS = { fftLength: 1024, rows: 1000, widthPx: 1200, heightPx: 800, reduce: "mean" } as const;
 
 export async function spectrogramCommand(path: string, options: SpectrogramOptions): Promise<SpectrogramSummary> {
+  const folder = options.outFolder;
+  if (folder === undefined) await checkFileTarget(options.outputPath); // before the work, not after
   const a = await analyseCapture(path, options.capture, {
     ...options.pass1,
     spectrogramFftLength: options.fftLength ?? SPECTROGRAM_DEFAULTS.fftLength,
@@ -48,9 +53,10 @@ export async function spectrogramCommand(path: string, options: SpectrogramOptio
     dbRange: options.dbRange,
     reduce: options.reduce ?? SPECTROGRAM_DEFAULTS.reduce,
   });
-  await writeFileAtomic(options.outputPath, figure.png);
+  if (folder === undefined) await writeFileAtomic(options.outputPath, figure.png);
+  else await folder.write(options.outputPath, figure.png);
   return {
-    outputPath: options.outputPath,
+    outputPath: folder === undefined ? options.outputPath : join(folder.target, options.outputPath),
     widthPx: options.widthPx ?? SPECTROGRAM_DEFAULTS.widthPx,
     heightPx: options.heightPx ?? SPECTROGRAM_DEFAULTS.heightPx,
     rows: a.pass1.spectrogram.rowCount,

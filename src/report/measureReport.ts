@@ -7,6 +7,7 @@ import type { CaptureMeta, SampleSpan } from "../capture/index.js";
 import type { Pass1Result } from "../analysis/index.js";
 import type { EmissionFigures } from "../analysis/emissionFigures.js";
 import type { Measurement } from "../measure/index.js";
+import type { PublishedFile } from "./folderWriter.js";
 import { TOOL_NAME, TOOL_VERSION } from "../version.js";
 import { captureSection, qualitySection, type CaptureSection, type QualitySection } from "./inspectReport.js";
 
@@ -44,6 +45,8 @@ export interface MeasureReport {
   readonly fsk: { readonly shiftHz: N; readonly modulationIndex: N; readonly toneFrequenciesHz: readonly N[] | null };
   readonly ook: { readonly onOffRatioDb: N; readonly dutyCyclePercent: N; readonly onLevelDbfs: N };
   readonly emission: { readonly designator: string | null; readonly designatorBasis: "necessary" | "occupied" | null; readonly necessaryBandwidthHz: N };
+  /** Every other file of the report folder with its SHA-256, in the order written; null when no folder is written. */
+  readonly files: readonly PublishedFile[] | null;
   readonly uncertainty: Readonly<Record<string, number>>;
   readonly methods: Readonly<Record<string, string>>;
   /** Why a figure is null, keyed by its dotted path (a figure that does not apply is simply absent here). */
@@ -169,6 +172,7 @@ export function buildMeasureReport(
       designatorBasis: f.emission.designatorBasis,
       necessaryBandwidthHz: l.take("emission.necessaryBandwidthHz", f.emission.necessaryBandwidthHz),
     },
+    files: null,
     uncertainty: l.uncertainty,
     methods: {
       ...l.methods,

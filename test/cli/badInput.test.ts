@@ -70,7 +70,7 @@ describe("bad input gives exit 2 and one line (interface.md, exit codes)", () =>
     expectOneLineError([meta], "broken.sigmf-meta");
   });
   it("leaves no partial or temporary file behind", () => {
-    const leftovers = readdirSync(dir).filter((n) => n.startsWith("out-") || n.includes(".tmp-"));
+    const leftovers = readdirSync(dir).filter((n) => n.startsWith("out-") || n.startsWith(".iqaudit-"));
     expect(leftovers).toEqual([]);
   });
 });

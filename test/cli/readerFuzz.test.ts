@@ -26,7 +26,7 @@ const SEEDS: readonly [string, Buffer][] = [
 ];
 
 function inspectOutcome(path: string, args: readonly string[] = []): void {
-  const r = runCli(["inspect", path, "--json", ...args], undefined, RUN_LIMIT_MS);
+  const r = runCli(["inspect", path, "--json", ...args], undefined, { timeoutMs: RUN_LIMIT_MS });
   expect([0, 2], `exit ${r.status}: ${r.stderr}`).toContain(r.status);
   expect(r.stderr).not.toMatch(/internal error|\n\s+at /);
   const lines = r.stderr.split("\n").filter((l) => l.length > 0);

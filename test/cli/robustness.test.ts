@@ -31,7 +31,7 @@ function tone(n: number): Float64Array {
 }
 
 function inspect(args: readonly string[]): CliResult {
-  return runCli(["inspect", ...args], undefined, RUN_LIMIT_MS);
+  return runCli(["inspect", ...args], undefined, { timeoutMs: RUN_LIMIT_MS });
 }
 
 function expectRefused(args: readonly string[], pattern: RegExp): void {

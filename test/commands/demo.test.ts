@@ -1,0 +1,38 @@
+// demoCommand publishes each capture folder whole (docs/cli.md, "Report folders"): its
+// inspect.json lists every other file of the folder, those of its measure-* report folders
+// included, and each measure-* folder's report.json lists its own; every hash is recomputed here
+// with node:crypto (the reference), and nothing else is in the folders.
+import { createHash } from "node:crypto";
+import { mkdtempSync, readdirSync, readFileSync, statSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join, relative } from "node:path";
+import { describe, expect, it } from "vitest";
+import { demoCommand } from "../../src/commands/demo.js";
+
+/** Every file below `dir`, as paths relative to it with `/`. */
+function filesBelow(dir: string, base = dir): string[] {
+  return readdirSync(dir).flatMap((n) => {
+    const p = join(dir, n);
+    return statSync(p).isDirectory() ? filesBelow(p, base) : [relative(base, p).split("\\").join("/")];
+  });
+}
+
+function expectWhole(dir: string, manifest: string): void {
+  const doc = JSON.parse(readFileSync(join(dir, manifest), "utf8")) as { files: { path: string; sha256: string }[] };
+  for (const f of doc.files) expect(createHash("sha256").update(readFileSync(join(dir, f.path))).digest("hex"), f.path).toBe(f.sha256);
+  expect(filesBelow(dir).sort()).toEqual([manifest, ...doc.files.map((f) => f.path)].sort());
+}
+
+describe("demoCommand({ outDir })", () => {
+  it("publishes each capture folder whole, with its measure-* report folders whole inside it", async () => {
+    const out = mkdtempSync(join(tmpdir(), "iqaudit-demo-"));
+    await demoCommand({ outDir: out });
+    const folders = readdirSync(out).filter((n) => n !== "captures" && n !== "SUMMARY.txt");
+    expect(folders.length).toBe(4); // the four captures of the sample scenario (samples/README.md)
+    for (const f of folders) {
+      expectWhole(join(out, f), "inspect.json");
+      for (const m of readdirSync(join(out, f)).filter((n) => n.startsWith("measure-"))) expectWhole(join(out, f, m), "report.json");
+    }
+    expect(readdirSync(out).filter((n) => n.startsWith(".iqaudit-"))).toEqual([]);
+  });
+});
