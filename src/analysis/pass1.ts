@@ -324,10 +324,12 @@ class WorkerSink implements BlockSink {
         ),
       );
       if (this.failure) throw this.failure;
-      // The workers go first, so that their memory is free before the merged state is built.
+      // The workers and the block pool go first, so that their memory is free before the merged
+      // state is built; the first state's spectrogram rows become the merged ones (not copied).
       await this.abort();
+      this.free.length = 0;
       const merged = new Pass1Engine(this.config);
-      for (const s of states) merged.merge(s.state);
+      for (const s of states.splice(0)) merged.merge(s.state);
       return merged.finish();
     } finally {
       await this.abort();

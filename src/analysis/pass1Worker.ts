@@ -17,14 +17,14 @@ port.on("message", (message: WorkerRequest) => {
     const reply: WorkerReply = { type: "done", buffer: message.buffer };
     port.postMessage(reply, [message.buffer]);
   } else {
-    // The snapshot is a copy made for this message: hand its arrays over rather than clone them.
-    const state = engine.snapshot();
+    // The engine is done: its own arrays are handed over (transferred, neither copied nor cloned).
+    const state = engine.release();
     const reply: WorkerReply = { type: "state", state };
     port.postMessage(reply, transferables(state));
   }
 });
 
-function transferables(state: ReturnType<Pass1Engine["snapshot"]>): ArrayBuffer[] {
+function transferables(state: ReturnType<Pass1Engine["release"]>): ArrayBuffer[] {
   const arrays = [state.welch.powerSum, state.welch.powerMax, state.spectrogram.powerSum, state.spectrogram.powerMax, state.spectrogram.framesPerRow];
   return arrays.map((a) => a.buffer as ArrayBuffer);
 }
