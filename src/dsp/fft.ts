@@ -67,6 +67,80 @@ function doubleBuffer(a: number[]): number[] {
   return a;
 }
 
+/**
+ * The DFT of `x` in place: `x` holds N complex values interleaved (re, im; length 2N, N a power
+ * of two ≥ 2) and is overwritten by X, in the conventions above (forward unscaled, inverse
+ * scaled by 1/N, natural bin order). For long one-off transforms of a whole record: iterative
+ * radix-2 decimation in time after a bit-reversal permutation (Cooley & Tukey 1965; e.g.
+ * Oppenheim & Schafer, Discrete-Time Signal Processing, §9.3), each twiddle computed with
+ * Math.cos and Math.sin as its stage needs it, so that the only memory is `x` (16 bytes a
+ * point), where a plan holds a table and needs a second buffer (48 bytes a point, all in the JS
+ * heap). Throws RangeError unless N is a power of two ≥ 2.
+ */
+export function transformInPlace(x: Float64Array, direction: "forward" | "inverse" = "forward"): void {
+  const n = x.length >> 1;
+  if (x.length !== 2 * n || !isFftSize(n)) throw new RangeError(`transform of ${x.length / 2} points: not a power of two of at least 2`);
+  bitReverse(x, n);
+  const sign = direction === "forward" ? -1 : 1;
+  for (let half = 1; half < n; half *= 2) butterflies(x, n, half, (sign * Math.PI) / half);
+  if (direction === "inverse") for (let i = 0; i < 2 * n; i++) x[i] = (x[i] as number) / n;
+}
+
+/** Reorders the N complex values of `x` to bit-reversed index order (in place, by swaps). */
+function bitReverse(x: Float64Array, n: number): void {
+  for (let i = 1, j = 0; i < n; i++) {
+    let bit = n >> 1;
+    for (; j & bit; bit >>= 1) j ^= bit;
+    j ^= bit;
+    if (i < j) {
+      const r = x[2 * i] as number;
+      const m = x[2 * i + 1] as number;
+      x[2 * i] = x[2 * j] as number;
+      x[2 * i + 1] = x[2 * j + 1] as number;
+      x[2 * j] = r;
+      x[2 * j + 1] = m;
+    }
+  }
+}
+
+/** Stages up to this span run block by block with their twiddles in a small table; longer ones twiddle by twiddle. */
+const SHORT_SPAN = 1024;
+
+/**
+ * One radix-2 stage: butterflies of span `half`, twiddle e^(j·step·k) for k = 0 … half − 1.
+ * A short stage computes its twiddles once into `SHORT_SPAN` pairs and runs through the blocks
+ * in memory order; a long one computes each twiddle once and visits its few butterflies.
+ */
+function butterflies(x: Float64Array, n: number, half: number, step: number): void {
+  if (half <= SHORT_SPAN) {
+    const w = new Float64Array(2 * half);
+    for (let k = 0; k < half; k++) { w[2 * k] = Math.cos(step * k); w[2 * k + 1] = Math.sin(step * k); }
+    for (let start = 0; start < 2 * n; start += 4 * half) {
+      for (let k = 0; k < half; k++) butterfly(x, start + 2 * k, start + 2 * k + 2 * half, w[2 * k] as number, w[2 * k + 1] as number);
+    }
+    return;
+  }
+  for (let k = 0; k < half; k++) {
+    const wr = Math.cos(step * k);
+    const wi = Math.sin(step * k);
+    for (let a = 2 * k; a < 2 * n; a += 4 * half) butterfly(x, a, a + 2 * half, wr, wi);
+  }
+}
+
+/** x[a] ← x[a] + w·x[b], x[b] ← x[a] − w·x[b] (complex values at interleaved offsets a and b). */
+function butterfly(x: Float64Array, a: number, b: number, wr: number, wi: number): void {
+  const br = x[b] as number;
+  const bi = x[b + 1] as number;
+  const tr = wr * br - wi * bi;
+  const ti = wr * bi + wi * br;
+  const ar = x[a] as number;
+  const ai = x[a + 1] as number;
+  x[b] = ar - tr;
+  x[b + 1] = ai - ti;
+  x[a] = ar + tr;
+  x[a + 1] = ai + ti;
+}
+
 /** True when `n` is a size `fftPlan` accepts (a power of two, at least 2). */
 export function isFftSize(n: number): boolean {
   return Number.isInteger(n) && n >= 2 && (n & (n - 1)) === 0;
