@@ -1,5 +1,6 @@
 /**
- * The one FFT of iqaudit: a thin wrapper over fft.js (radix-4, complex, double precision).
+ * The one FFT of iqaudit: a thin wrapper over fft.js (radix-4, complex, double precision), and
+ * `transformInPlace` for long one-off transforms of a whole record (memory: the record alone).
  * No other module imports fft.js.
  *
  * Conventions (set here, once):
@@ -30,9 +31,9 @@ export interface FftPlan {
 }
 
 const plans = new Map<number, FftPlan>();
-/** Plans up to this size are kept for the life of the process; larger ones (long zero-padded
- * transforms of a whole record) are built for the call and left to the garbage collector, so
- * their tables (16 bytes a point) do not stay resident. */
+/** Plans up to this size are kept for the life of the process; larger ones are built for the
+ * call and left to the garbage collector, so their tables (16 bytes a point) do not stay
+ * resident (long transforms of a whole record use `transformInPlace` instead). */
 const CACHED_MAX_SIZE = 1 << 16;
 
 /**
