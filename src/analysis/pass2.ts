@@ -40,7 +40,8 @@ export const PASS2_DEFAULTS = { maxSamples: 1 << 20, blockSamples: 65_536 } as c
 
 export async function runPass2(source: CaptureSource, span: SampleSpan, options: Pass2Options): Promise<Pass2Result> {
   const fs = source.meta.sampleRateHz;
-  const extractor = new ChannelExtractor({ sampleRateHz: fs, offsetHz: options.offsetHz, bandwidthHz: options.bandwidthHz });
+  // Blocks and the extractor's outputs are reused arrays (copied into `out` at once): no garbage a block.
+  const extractor = new ChannelExtractor({ sampleRateHz: fs, offsetHz: options.offsetHz, bandwidthHz: options.bandwidthHz, reuseOutput: true });
   const maxSamples = options.maxSamples ?? PASS2_DEFAULTS.maxSamples;
   const fsOut = extractor.outputRateHz;
   // The first outputs hold the filters' start-up transient: skip one filter delay.
