@@ -2,7 +2,7 @@
  * Band-limiting a complex record by zeroing DFT bins outside [lowerHz, upperHz] (zero-padded to
  * at least twice its length, so the circular wrap stays in the padding). Module-internal.
  * Memory: the padded record, transformed in place (16 bytes a point: 8 MiB for 2^18 samples
- * padded to 2^19), and the result.
+ * padded to 2^19); the result is the head of it.
  */
 import { transformInPlace } from "../dsp/index.js";
 
@@ -26,7 +26,7 @@ export function bandLimitedRecord(
     if (f < lowerHz || f > upperHz) { x[2 * k] = 0; x[2 * k + 1] = 0; } else kept++;
   }
   transformInPlace(x, "inverse");
-  return { iq: x.slice(0, 2 * n), widthHz: (kept * fs) / size };
+  return { iq: x.subarray(0, 2 * n), widthHz: (kept * fs) / size };
 }
 
 /** The record limited to [lowerHz, upperHz], interleaved I,Q float32, same length and rate. */

@@ -4,7 +4,7 @@
  * length trimmed from both ends of each burst so that no ramp is kept. A bursty FSK or PSK
  * telemetry link first looks like on-off keying; its modulation shows inside the bursts.
  */
-import { envelopeSplit, movingAverage } from "./digitalFeatures.js";
+import { envelopeSplit, movingAverageInPlace } from "./digitalFeatures.js";
 
 export interface Bursts {
   /** The samples inside the bursts, interleaved I,Q, bursts joined end to end. */
@@ -46,7 +46,7 @@ export function burstSpans(iq: Float32Array, sampleRateHz: number, smoothingS = 
   const envelope = new Float64Array(n);
   for (let k = 0; k < n; k++) envelope[k] = Math.hypot(iq[2 * k] as number, iq[2 * k + 1] as number);
   const len = Math.max(1, Math.round(smoothingS * sampleRateHz));
-  const smooth = movingAverage(envelope, len);
+  const smooth = movingAverageInPlace(envelope, len);
   const { threshold, lowMean, highMean } = envelopeSplit(smooth);
   const keep: [number, number][] = [];
   let on = 0;
