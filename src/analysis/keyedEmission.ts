@@ -4,7 +4,7 @@
  * envelope that sits at the noise between bursts; what is inside the bursts tells them apart.
  * See docs/methods.md ("Keyed emissions and bursts").
  */
-import { burstSamples, classifyAnalog, analogFeatures, classifyEmission, fskFigures, type Bursts, type EmissionClass, type FskFigures } from "../measure/index.js";
+import { burstSpans, gatherBursts, classifyAnalog, analogFeatures, classifyEmission, fskFigures, type Bursts, type EmissionClass, type FskFigures } from "../measure/index.js";
 import type { WelchPsd } from "../dsp/index.js";
 
 /** An envelope is keyed when its on level stands this far above its off level, dB (as the OOK rule: 10 dB). */
@@ -25,11 +25,11 @@ export interface KeyedDecision {
 
 const ramp = (x: number, a: number, b: number): number => Math.min(1, Math.max(0, (x - a) / (b - a)));
 
-/** The bursts of `iq` when its envelope is keyed (module constants), else null. */
+/** The bursts of `iq` when its envelope is keyed (module constants), else null; the samples of the bursts are gathered only then. */
 export function keyedBursts(iq: Float32Array, fs: number): Bursts | null {
-  const b = burstSamples(iq, fs);
-  const enough = b.iq.length / 2 >= 1024 && b.burstCount >= 1;
-  return enough && b.onOffDb >= KEYED_ON_OFF_DB && b.dutyCyclePercent <= KEYED_MAX_DUTY_PERCENT ? b : null;
+  const b = burstSpans(iq, fs);
+  const enough = b.keptSamples >= 1024 && b.spans.length >= 1;
+  return enough && b.onOffDb >= KEYED_ON_OFF_DB && b.dutyCyclePercent <= KEYED_MAX_DUTY_PERCENT ? gatherBursts(iq, b) : null;
 }
 
 /**

@@ -16,7 +16,7 @@ import { CaptureFormatError, ParameterError } from "../errors.js";
 import { noiseFloor, type HealthFigures, type Spectrogram, type WelchPsd } from "../dsp/index.js";
 import { formatInfo } from "../capture/sampleFormat.js";
 import { Pass1Engine, prefixSamples, type Pass1Config } from "./pass1Engine.js";
-import type { WorkerReply, WorkerRequest } from "./workerMessages.js";
+import { stateBuffers, type Pass1Figures, type WorkerReply, type WorkerRequest } from "./workerMessages.js";
 import { spectrumPeak, type SpectrumPeak } from "./spectrumPeak.js";
 
 export interface Pass1Options {
@@ -263,10 +263,7 @@ class WorkerSink implements BlockSink {
   private readonly waiting: ((b: ArrayBuffer) => void)[] = [];
   private failure: Error | null = null;
 
-  constructor(
-    private readonly config: Pass1Config,
-    count: number,
-  ) {
+  constructor(config: Pass1Config, count: number) {
     const bytes = blockBytes(config);
     for (let k = 0; k < 2 * count + 1; k++) this.free.push(new ArrayBuffer(bytes));
     for (let k = 0; k < count; k++) {
@@ -308,30 +305,39 @@ class WorkerSink implements BlockSink {
     (this.workers[k] as Worker).postMessage(request, [buffer]);
   }
 
-  async finish(): Promise<{ psd: WelchPsd; spectrogram: Spectrogram; health: HealthFigures }> {
+  /**
+   * The other workers' states (their arrays transferred, not copied) go to the first worker,
+   * which merges them into its own and returns the figures; the block pool goes with them. The
+   * large arrays of the end of pass 1 thus die with the workers (freed when they are
+   * terminated), rather than lingering in this thread as garbage until a full collection.
+   */
+  async finish(): Promise<Pass1Figures> {
     try {
-      const states = await Promise.all(
-        this.workers.map(
-          (worker) =>
-            new Promise<WorkerReply & { type: "state" }>((resolve, reject) => {
-              worker.on("message", (reply: WorkerReply) => {
-                if (reply.type === "state") resolve(reply);
-              });
-              worker.once("error", reject);
-              const request: WorkerRequest = { type: "finish" };
-              worker.postMessage(request);
-            }),
-        ),
-      );
+      const [first, ...others] = this.workers as [Worker, ...Worker[]];
+      const states = await Promise.all(others.map((worker) => this.ask<"state">(worker, { type: "finish" }, "state")));
       if (this.failure) throw this.failure;
-      // The workers go first, so that their memory is free before the merged state is built.
-      await this.abort();
-      const merged = new Pass1Engine(this.config);
-      for (const s of states) merged.merge(s.state);
-      return merged.finish();
+      // The others are done: their memory is freed before the first one merges.
+      await Promise.all(others.map((w) => w.terminate()));
+      const discard = this.free.splice(0);
+      const request: WorkerRequest = { type: "mergeAndFinish", states: states.map((s) => s.state), discard };
+      const transfer = [...discard, ...states.flatMap((s) => stateBuffers(s.state))];
+      const reply = await this.ask<"figures">(first, request, "figures", transfer);
+      if (this.failure) throw this.failure;
+      return reply.figures;
     } finally {
       await this.abort();
     }
+  }
+
+  /** Sends `request` to `worker` and waits for its reply of type `type`. */
+  private ask<T extends WorkerReply["type"]>(worker: Worker, request: WorkerRequest, type: T, transfer: ArrayBuffer[] = []): Promise<WorkerReply & { type: T }> {
+    return new Promise((resolve, reject) => {
+      worker.on("message", (reply: WorkerReply) => {
+        if (reply.type === type) resolve(reply as WorkerReply & { type: T });
+      });
+      worker.once("error", reject);
+      worker.postMessage(request, transfer);
+    });
   }
 
   async abort(): Promise<void> {

@@ -92,6 +92,16 @@ export class Pass1Engine {
     };
   }
 
+  /** The state without copying the spectrogram's rows (SpectrogramAccumulator.release): the engine is done after it. */
+  release(): Pass1EngineState {
+    return {
+      welch: this.welch.snapshot(),
+      spectrogram: this.spectrogram.release(),
+      health: this.health.snapshot(),
+    };
+  }
+
+  /** Adds another engine's state; into an engine that holds nothing yet, the spectrogram's rows are taken over (SpectrogramAccumulator.merge). */
   merge(state: Pass1EngineState): void {
     this.welch.merge(state.welch);
     this.spectrogram.merge(state.spectrogram);

@@ -1,10 +1,11 @@
 /**
  * Worker thread of pass 1: owns one Pass1Engine, processes the blocks it is sent, hands each
- * block's buffer back for reuse (so memory stays a fixed pool), and returns its state at the end.
+ * block's buffer back for reuse (so memory stays a fixed pool), and at the end either returns
+ * its state or merges the other workers' states into its own and returns the figures.
  */
 import { parentPort, workerData } from "node:worker_threads";
 import { Pass1Engine, type Pass1Config } from "./pass1Engine.js";
-import type { WorkerRequest, WorkerReply } from "./workerMessages.js";
+import { figureBuffers, stateBuffers, type WorkerRequest, type WorkerReply } from "./workerMessages.js";
 
 const port = parentPort;
 if (port === null) throw new Error("pass1Worker must run in a worker thread");
@@ -16,15 +17,17 @@ port.on("message", (message: WorkerRequest) => {
     engine.processBlock(raw, message.prefixFrames, message.ownedStart);
     const reply: WorkerReply = { type: "done", buffer: message.buffer };
     port.postMessage(reply, [message.buffer]);
-  } else {
-    // The snapshot is a copy made for this message: hand its arrays over rather than clone them.
-    const state = engine.snapshot();
+  } else if (message.type === "finish") {
+    // The engine is done: its own arrays are handed over (transferred, neither copied nor cloned).
+    const state = engine.release();
     const reply: WorkerReply = { type: "state", state };
-    port.postMessage(reply, transferables(state));
+    port.postMessage(reply, stateBuffers(state));
+  } else {
+    // Merged here, so that the states' arrays die with this worker instead of lingering as
+    // garbage in the main thread; only the figures go back.
+    for (const state of message.states) engine.merge(state);
+    const figures = engine.finish();
+    const reply: WorkerReply = { type: "figures", figures };
+    port.postMessage(reply, figureBuffers(figures));
   }
 });
-
-function transferables(state: ReturnType<Pass1Engine["snapshot"]>): ArrayBuffer[] {
-  const arrays = [state.welch.powerSum, state.welch.powerMax, state.spectrogram.powerSum, state.spectrogram.powerMax, state.spectrogram.framesPerRow];
-  return arrays.map((a) => a.buffer as ArrayBuffer);
-}

@@ -1,5 +1,13 @@
-/** Messages between pass 1 and its worker threads. */
+/** Messages between pass 1 and its worker threads, and their transfer lists. */
+import type { HealthFigures, Spectrogram, WelchPsd } from "../dsp/index.js";
 import type { Pass1EngineState } from "./pass1Engine.js";
+
+/** What pass 1 computes from its accumulators. */
+export interface Pass1Figures {
+  readonly psd: WelchPsd;
+  readonly spectrogram: Spectrogram;
+  readonly health: HealthFigures;
+}
 
 export type WorkerRequest =
   | {
@@ -10,8 +18,29 @@ export type WorkerRequest =
       readonly prefixFrames: number;
       readonly ownedStart: number;
     }
-  | { readonly type: "finish" };
+  | { readonly type: "finish" }
+  /** Merge the other workers' states into this worker's engine and reply with the figures;
+   * `discard` are buffers handed over only to be freed with the worker. */
+  | { readonly type: "mergeAndFinish"; readonly states: readonly Pass1EngineState[]; readonly discard: readonly ArrayBuffer[] };
 
 export type WorkerReply =
   | { readonly type: "done"; readonly buffer: ArrayBuffer }
-  | { readonly type: "state"; readonly state: Pass1EngineState };
+  | { readonly type: "state"; readonly state: Pass1EngineState }
+  | { readonly type: "figures"; readonly figures: Pass1Figures };
+
+/** The buffers of an engine state's arrays, to transfer it (neither copied nor cloned). */
+export function stateBuffers(state: Pass1EngineState): ArrayBuffer[] {
+  const { welch, spectrogram } = state;
+  return buffersOf([welch.powerSum, welch.powerMax, spectrogram.powerSum, spectrogram.powerMax, spectrogram.framesPerRow]);
+}
+
+/** The buffers of the figures' arrays, to transfer them. */
+export function figureBuffers(figures: Pass1Figures): ArrayBuffer[] {
+  const { psd, spectrogram: s } = figures;
+  return buffersOf([psd.densityPerHz, psd.maxHoldPerHz, s.meanPerHz, s.maxPerHz, s.framesPerRow, s.rowStartS, s.rowStopS]);
+}
+
+/** The distinct buffers under `arrays` (a transfer list may name each only once). */
+function buffersOf(arrays: readonly ArrayBufferView[]): ArrayBuffer[] {
+  return [...new Set(arrays.map((a) => a.buffer as ArrayBuffer))];
+}

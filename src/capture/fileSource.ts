@@ -7,7 +7,7 @@
 import type { FileHandle } from "node:fs/promises";
 import { CaptureFormatError, ParameterError } from "../errors.js";
 import { decodeSamples } from "./sampleFormat.js";
-import type { CaptureMeta, CaptureSource, SampleSpan } from "./source.js";
+import type { BlockOptions, CaptureMeta, CaptureSource, SampleSpan } from "./source.js";
 
 /** Default block length for `blocks()`, in samples (frames): 64 Ki samples, 512 KiB as float32 I,Q. */
 export const DEFAULT_BLOCK_SAMPLES = 65536;
@@ -15,16 +15,16 @@ export const DEFAULT_BLOCK_SAMPLES = 65536;
 /**
  * A CaptureSource over an open file handle. The source owns `handle` and closes it in `close()`.
  * Memory per `blocks()` iteration: one byte buffer of blockSamples × frameBytes, plus the
- * Float32Array handed out for each block (2 × blockSamples values, a fresh one every block so a
- * consumer may keep it).
+ * Float32Array handed out for each block (2 × blockSamples values): a fresh one every block so a
+ * consumer may keep it, or with `reuse` one for the whole iteration.
  */
 export function fileSource(meta: CaptureMeta, handle: FileHandle): CaptureSource {
   let closed = false;
   return {
     meta,
-    blocks(span: SampleSpan, blockSamples: number = DEFAULT_BLOCK_SAMPLES): AsyncIterable<Float32Array> {
+    blocks(span: SampleSpan, blockSamples: number = DEFAULT_BLOCK_SAMPLES, options: BlockOptions = {}): AsyncIterable<Float32Array> {
       checkSpan(meta, span, blockSamples);
-      return readBlocks(meta, handle, span, blockSamples);
+      return readBlocks(meta, handle, span, blockSamples, options.reuse === true);
     },
     async close(): Promise<void> {
       if (closed) return;
@@ -55,10 +55,12 @@ async function* readBlocks(
   handle: FileHandle,
   span: SampleSpan,
   blockSamples: number,
+  reuse: boolean,
 ): AsyncGenerator<Float32Array> {
   const frameBytes = meta.frameBytes;
   // An owned buffer (byteOffset 0) keeps decodeSamples on its aligned fast path for float32.
   const bytes = new Uint8Array(Math.min(blockSamples, span.sampleCount) * frameBytes);
+  const shared = reuse ? new Float32Array(2 * Math.min(blockSamples, span.sampleCount)) : null;
   let next = span.startSample;
   const end = span.startSample + span.sampleCount;
   while (next < end) {
@@ -77,7 +79,7 @@ async function* readBlocks(
       }
       got += bytesRead;
     }
-    const out = new Float32Array(2 * n);
+    const out = shared === null ? new Float32Array(2 * n) : shared.subarray(0, 2 * n);
     decodeSamples(meta.format, bytes.subarray(0, want), out, meta.swapIq);
     yield out;
     next += n;

@@ -74,13 +74,23 @@ export interface SampleSpan {
   readonly sampleCount: number;
 }
 
+/** How `blocks()` hands its blocks out. */
+export interface BlockOptions {
+  /**
+   * true: every block is a view of one array of the iteration, overwritten by the next block, so
+   * that a long read leaves no garbage behind (a consumer that keeps a block must copy it);
+   * false (default): a fresh array every block, which the consumer may keep.
+   */
+  readonly reuse?: boolean | undefined;
+}
+
 export interface CaptureSource {
   readonly meta: CaptureMeta;
   /**
    * Reads samples [startSample, startSample + sampleCount) as interleaved I,Q float32, full
    * scale 1.0, in blocks of at most `blockSamples` samples. Memory: one block at a time.
    */
-  blocks(span: SampleSpan, blockSamples?: number): AsyncIterable<Float32Array>;
+  blocks(span: SampleSpan, blockSamples?: number, options?: BlockOptions): AsyncIterable<Float32Array>;
   /** Releases the file handle. Safe to call twice. */
   close(): Promise<void>;
 }

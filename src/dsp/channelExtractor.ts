@@ -31,6 +31,11 @@ export interface ChannelExtractorOptions {
   readonly bandwidthHz: number;
   /** Stopband attenuation of every stage, dB (default 80). */
   readonly stopbandDb?: number;
+  /**
+   * true: `push` returns a view of one array, overwritten by the next push (for a caller that
+   * copies the channel samples at once: no garbage a block); false (default): a new array.
+   */
+  readonly reuseOutput?: boolean;
 }
 
 /** Defaults of ChannelExtractorOptions. */
@@ -84,7 +89,8 @@ export class ChannelExtractor {
       const outRateHz = rateHz / f;
       const stopHz = i === factors.length - 1 ? fst : outRateHz - fst;
       const taps = designLowpass({ cutoffHz: fp, transitionHz: stopHz - fp, stopbandDb, sampleRateHz: rateHz });
-      const stage = new PolyphaseDecimator(taps, f);
+      // Between stages the next one copies its input at once: only the last may hand out a new array.
+      const stage = new PolyphaseDecimator(taps, f, i < factors.length - 1 || options.reuseOutput === true);
       delayS += stage.delaySamples / rateHz;
       stages.push(stage);
       rateHz = outRateHz;
@@ -92,7 +98,7 @@ export class ChannelExtractor {
     if (factors.length === 0 && fp < 0.45 * fs) {
       // No decimation: still low-pass to the channel, stopband from fs/2 on.
       const taps = designLowpass({ cutoffHz: fp, transitionHz: fs / 2 - fp, stopbandDb, sampleRateHz: fs });
-      const stage = new PolyphaseDecimator(taps, 1);
+      const stage = new PolyphaseDecimator(taps, 1, options.reuseOutput === true);
       delayS += stage.delaySamples / fs;
       stages.push(stage);
     }
@@ -109,7 +115,8 @@ export class ChannelExtractor {
 
   /**
    * Mixes, filters and decimates the next block (interleaved I,Q, any even length; blocks are
-   * consecutive) and returns the channel samples it completes, interleaved, in a new array.
+   * consecutive) and returns the channel samples it completes, interleaved, in a new array (with
+   * reuseOutput, the extractor's, valid until the next push).
    */
   push(iq: Float32Array): Float32Array {
     if (iq.length % 2 !== 0) throw new RangeError(`iq length ${iq.length} is not even (interleaved I,Q)`);

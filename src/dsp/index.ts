@@ -1,4 +1,4 @@
-export { fftPlan, isFftSize, naturalBinIndex, toCentredOrder, type FftPlan } from "./fft.js";
+export { fftPlan, isFftSize, naturalBinIndex, toCentredOrder, transformInPlace, type FftPlan } from "./fft.js";
 export {
   WINDOW_NAMES, isWindowName, windowCoefficients, coherentGain, enbwBins, windowPowerSum, type WindowName,
 } from "./windows.js";

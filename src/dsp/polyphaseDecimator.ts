@@ -28,12 +28,17 @@ export class PolyphaseDecimator {
   private phase = 0;
   // Samples announced by beginBlock and not yet filtered.
   private pending = 0;
+  // With reuseOutput, the array every block's outputs are written to (grown when a block needs more).
+  private output: Float32Array | null;
 
   /**
    * `taps` real coefficients (at least one, all finite), `factor` a positive integer.
+   * `reuseOutput` (default false): every call returns a view of one array of the decimator,
+   * overwritten by the next call (for a caller that copies or consumes the outputs at once, so
+   * that a long stream leaves no garbage behind); else a new array every call.
    * Throws RangeError otherwise.
    */
-  constructor(taps: Float64Array, factor: number) {
+  constructor(taps: Float64Array, factor: number, reuseOutput = false) {
     if (taps.length < 1) throw new RangeError(`taps length ${taps.length} is not at least 1`);
     for (let k = 0; k < taps.length; k++) {
       if (!Number.isFinite(taps[k])) throw new RangeError(`taps[${k}] ${taps[k]} is not finite`);
@@ -51,11 +56,12 @@ export class PolyphaseDecimator {
     for (let k = 0; k < L; k++) if (taps[k] !== taps[L - 1 - k]) symmetric = false;
     this.symmetric = symmetric;
     this.buffer = new Float32Array(2 * (L - 1) + 2 * 4096);
+    this.output = reuseOutput ? new Float32Array(0) : null;
   }
 
   /**
    * Filters the block `iq` (interleaved I,Q, any even length, including 0) and returns the kept
-   * outputs it completes, interleaved, in a new array.
+   * outputs it completes, interleaved, in a new array (or, with reuseOutput, the decimator's).
    */
   push(iq: Float32Array): Float32Array {
     if (iq.length % 2 !== 0) throw new RangeError(`iq length ${iq.length} is not even (interleaved I,Q)`);
@@ -91,7 +97,7 @@ export class PolyphaseDecimator {
     const buf = this.buffer;
     const D = this.factor;
     const outCount = this.phase < n ? Math.floor((n - 1 - this.phase) / D) + 1 : 0;
-    const out = new Float32Array(2 * outCount);
+    const out = this.outputArray(2 * outCount);
     // Output j's newest input sits at buffer index history + phase + j·D; its oldest at phase + j·D.
     if (this.symmetric) {
       symmetricDots(buf, this.phase, D, outCount, this.reversed, out);
@@ -101,6 +107,13 @@ export class PolyphaseDecimator {
     this.phase = outCount * D + this.phase - n;
     buf.copyWithin(0, 2 * n, 2 * total);
     return out;
+  }
+
+  /** A new array of `length` values, or with reuseOutput a view of the decimator's own. */
+  private outputArray(length: number): Float32Array {
+    if (this.output === null) return new Float32Array(length);
+    if (this.output.length < length) this.output = new Float32Array(length + (length >> 1));
+    return this.output.subarray(0, length);
   }
 }
 

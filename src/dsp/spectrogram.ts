@@ -79,9 +79,11 @@ export class SpectrogramAccumulator {
   private readonly windowValues: Float64Array;
   private readonly input: number[];
   private readonly output: number[];
-  private readonly powerSum: Float64Array;
-  private readonly powerMax: Float64Array;
-  private readonly framesPerRow: Uint32Array;
+  private powerSum: Float64Array;
+  private powerMax: Float64Array;
+  private framesPerRow: Uint32Array;
+  /** False once anything was pushed or merged: a first merge may then take the state's arrays. */
+  private empty = true;
 
   constructor(options: SpectrogramOptions) {
     const { fftLength, rowCount, totalSamples, sampleRateHz } = options;
@@ -117,6 +119,7 @@ export class SpectrogramAccumulator {
     const l = this.fftLength;
     const rows = this.rowCount;
     const frames = this.frameCount;
+    if (last > firstFrame) this.empty = false;
     for (let k = firstFrame; k < last; k++) {
       const row = Math.floor((k * rows) / frames);
       loadWindowedFrame(iq, k * l - dataStart, this.windowValues, this.input);
@@ -135,14 +138,45 @@ export class SpectrogramAccumulator {
     };
   }
 
-  /** Adds another accumulator's state. Throws RangeError if its settings differ from these. */
+  /**
+   * The state with the accumulator's own arrays, not copies (2 × R × N doubles not duplicated):
+   * for an accumulator that is done, whose state is handed over once (a worker's last message).
+   * The accumulator must not be used afterwards.
+   */
+  release(): SpectrogramState {
+    const state: SpectrogramState = {
+      fftLength: this.fftLength, rowCount: this.rowCount, frameCount: this.frameCount,
+      sampleRateHz: this.sampleRateHz, window: this.window,
+      powerSum: this.powerSum, powerMax: this.powerMax, framesPerRow: this.framesPerRow,
+    };
+    this.powerSum = new Float64Array(0);
+    this.powerMax = new Float64Array(0);
+    this.framesPerRow = new Uint32Array(0);
+    return state;
+  }
+
+  /**
+   * Adds another accumulator's state. Throws RangeError if its settings differ from these.
+   * Merged into an accumulator that holds nothing yet, the state's arrays are taken over rather
+   * than added to zeros (the same sums, without touching 2 × R × N more doubles): the state is
+   * then owned by this accumulator and must not be changed by the caller.
+   */
   merge(state: SpectrogramState): void {
     if (state.fftLength !== this.fftLength || state.rowCount !== this.rowCount || state.frameCount !== this.frameCount
-      || state.sampleRateHz !== this.sampleRateHz || state.window !== this.window) {
+      || state.sampleRateHz !== this.sampleRateHz || state.window !== this.window
+      || state.powerSum.length !== this.rowCount * this.fftLength || state.powerMax.length !== state.powerSum.length
+      || state.framesPerRow.length !== this.rowCount) {
       throw new RangeError(
         `spectrogram state (${state.fftLength} × ${state.rowCount} rows of ${state.frameCount} frames, ${state.window}) `
         + `does not match (${this.fftLength} × ${this.rowCount} rows of ${this.frameCount} frames, ${this.window})`,
       );
+    }
+    if (this.empty) {
+      this.empty = false;
+      this.powerSum = state.powerSum;
+      this.powerMax = state.powerMax;
+      this.framesPerRow = state.framesPerRow;
+      return;
     }
     for (let i = 0; i < this.powerSum.length; i++) {
       this.powerSum[i] = (this.powerSum[i] as number) + (state.powerSum[i] as number);

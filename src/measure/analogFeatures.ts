@@ -40,7 +40,7 @@
  *
  * Records longer than 2^20 samples are analysed over their first 2^20 samples.
  */
-import { fftPlan, noiseFloor, type WelchPsd } from "../dsp/index.js";
+import { noiseFloor, transformInPlace, type WelchPsd } from "../dsp/index.js";
 import { bandLimitedRecord } from "./bandLimit.js";
 import { channelPower } from "./channelPower.js";
 import { mainLobeHalfWidthBins } from "./detectDcSpike.js";
@@ -220,16 +220,14 @@ function audioBandVariance(x: Float64Array, mean: number, fs: number, bandHz: nu
   const n = x.length;
   let size = 2;
   while (size < n) size *= 2;
-  const plan = fftPlan(size);
-  const input = plan.createBuffer();
-  const out = plan.createBuffer();
+  const out = new Float64Array(2 * size);
   let windowPower = 0;
   for (let i = 0; i < n; i++) {
     const w = 0.5 - 0.5 * Math.cos((2 * Math.PI * (i + 0.5)) / n);
-    input[2 * i] = w * ((x[i] as number) - mean);
+    out[2 * i] = w * ((x[i] as number) - mean);
     windowPower += w * w;
   }
-  plan.forward(out, input);
+  transformInPlace(out);
   const last = Math.min(size / 2 - 1, Math.floor((bandHz * size) / fs));
   let sum = 0;
   for (let k = 3; k <= last; k++) {

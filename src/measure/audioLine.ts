@@ -28,6 +28,8 @@ export interface AudioLine {
 
 /** Finest bin width asked for, Hz. */
 const TARGET_BIN_WIDTH_HZ = 1;
+/** Samples of the signal converted for the Welch accumulator at a time (with one segment before them), so that no copy of the whole signal is made. */
+const CHUNK_SAMPLES = 1 << 16;
 
 /** The dominant line of real signal `x` (at `sampleRateHz`) in [loHz, hiHz]; see the file comment. */
 export function dominantLine(x: Float64Array, sampleRateHz: number, loHz: number, hiHz: number): AudioLine {
@@ -37,10 +39,16 @@ export function dominantLine(x: Float64Array, sampleRateHz: number, loHz: number
   let mean = 0;
   for (let i = 0; i < x.length; i++) mean += x[i] as number;
   mean /= x.length;
-  const iq = new Float32Array(2 * x.length);
-  for (let i = 0; i < x.length; i++) iq[2 * i] = (x[i] as number) - mean;
   const acc = new WelchAccumulator({ fftLength, sampleRateHz, window: "hann" });
-  acc.push(iq, 0);
+  // Blocks with a prefix of one segment (the block contract of dsp/frameGrid.ts): the same
+  // segments, in the same order, as one push of the whole signal. Q stays 0.
+  const chunk = new Float32Array(2 * (CHUNK_SAMPLES + fftLength));
+  for (let owned = 0; owned < x.length; owned += CHUNK_SAMPLES) {
+    const start = Math.max(0, owned - fftLength);
+    const stop = Math.min(x.length, owned + CHUNK_SAMPLES);
+    for (let i = start; i < stop; i++) chunk[2 * (i - start)] = (x[i] as number) - mean;
+    acc.push(chunk.subarray(0, 2 * (stop - start)), start, owned);
+  }
   const psd = acc.finish();
   const bin = psd.binWidthHz;
   const first = Math.max(1, Math.ceil(loHz / bin)) + fftLength / 2;

@@ -19,7 +19,7 @@
  * psdCentroidHz: the power-weighted mean frequency of PSD − floor over a range, for emissions
  * with no carrier line (common practice, e.g. the centre of a PSK or noise-like emission).
  */
-import { binFrequencyHz, equivalentDegreesOfFreedom, fftPlan, type WelchPsd } from "../dsp/index.js";
+import { binFrequencyHz, equivalentDegreesOfFreedom, transformInPlace, type WelchPsd } from "../dsp/index.js";
 import { refinePeakStep } from "./periodogramPeak.js";
 import { measurement, notAvailable, type Measurement } from "./measurement.js";
 
@@ -37,16 +37,14 @@ export function toneFrequency(iq: Float32Array | Float64Array, sampleRateHz: num
   if (!(sampleRateHz > 0) || !Number.isFinite(sampleRateHz)) throw new RangeError(`sampleRateHz ${sampleRateHz} is not a positive finite rate`);
   if (iq.length % 2 !== 0) throw new RangeError(`iq has odd length ${iq.length}; it must be interleaved I,Q pairs`);
   // At most 2^19 samples: the bound then is already far below any receiver's reference error,
-  // and the zero-padded transform stays at 2^20 points (16 MiB a buffer).
+  // and the zero-padded transform stays at 2^20 points (16 MiB, transformed in place).
   const n = Math.min(iq.length / 2, TONE_MAX_SAMPLES);
   if (n < 8) return notAvailable("Hz", TONE_METHOD, `${n} samples are too few for a frequency estimate`);
   let size = 2;
   while (size < 2 * n) size *= 2;
-  const plan = fftPlan(size);
-  const input = plan.createBuffer();
-  const out = plan.createBuffer();
-  for (let k = 0; k < 2 * n; k++) input[k] = iq[k] as number;
-  plan.forward(out, input);
+  const out = new Float64Array(2 * size);
+  for (let k = 0; k < 2 * n; k++) out[k] = iq[k] as number;
+  transformInPlace(out);
   let kMax = 0;
   let pMax = -1;
   for (let k = 0; k < size; k++) {
@@ -69,7 +67,7 @@ export function toneFrequency(iq: Float32Array | Float64Array, sampleRateHz: num
     if (Math.abs(delta) <= 0.5) nu += delta * step;
   }
   const c = (n - 1) / 2;
-  const refined = refinePeakStep(Float64Array.from(iq.subarray(0, 2 * n)), nu, 3);
+  const refined = refinePeakStep(iq.subarray(0, 2 * n), nu, 3);
   nu = refined.nu;
   const peak = dtft(iq, n, nu, c);
   const a2 = (peak[0] * peak[0] + peak[1] * peak[1]) / (n * n);

@@ -9,7 +9,7 @@
  * 1983, for the phase; the frequency as the ML line of r^M, Rife & Boorstyn 1974). The range is
  * |ν| < 1/(2M) cycles per symbol and θ is known modulo 2π/M (the constellation's symmetry).
  */
-import { constellation, fftPlan, type ConstellationKind, type FftPlan } from "../dsp/index.js";
+import { constellation, transformInPlace, type ConstellationKind } from "../dsp/index.js";
 import { dtftAt, lineFrequencyCrbVariance, refinePeak } from "./periodogramPeak.js";
 
 /** The power M whose line each kind carries. */
@@ -29,21 +29,19 @@ export interface PowerLineCarrier {
   readonly lineSnr: number;
 }
 
-/** The padded transform powerLineCarrier uses for `count` symbols: plan and two buffers. A
- * caller estimating several times on records of one length passes one, so that the plan's tables
- * and the buffers (16 bytes a point each) are built once, not per estimate. */
+/** The padded transform powerLineCarrier uses for `count` symbols: its size and one buffer,
+ * transformed in place (16 bytes a point). A caller estimating several times on records of one
+ * length passes one, so that the buffer is made once, not per estimate. */
 export interface LineTransform {
-  readonly plan: FftPlan;
-  readonly input: number[];
-  readonly out: number[];
+  readonly size: number;
+  readonly buffer: Float64Array;
 }
 
 /** The LineTransform for records of `count` symbols: at least 4·count points (a power of two). */
 export function lineTransform(count: number): LineTransform {
   let size = 2;
   while (size < 4 * count) size *= 2;
-  const plan = fftPlan(size);
-  return { plan, input: plan.createBuffer(), out: plan.createBuffer() };
+  return { size, buffer: new Float64Array(2 * size) };
 }
 
 /** Frequency and phase of `symbols` (interleaved I,Q) from the M-th power line of `kind`;
@@ -67,12 +65,11 @@ export function powerLineCarrier(symbols: Float64Array, kind: ConstellationKind,
     z[2 * k + 1] = im;
     total += re * re + im * im;
   }
-  const { plan, input, out } = transform !== undefined && transform.plan.size >= 4 * count && transform.plan.size < 8 * count
+  const { size, buffer: out } = transform !== undefined && transform.size >= 4 * count && transform.size < 8 * count
     ? transform : lineTransform(count);
-  const size = plan.size;
-  for (let k = 0; k < 2 * count; k++) input[k] = z[k] as number;
-  input.fill(0, 2 * count);
-  plan.forward(out, input);
+  out.set(z);
+  out.fill(0, 2 * count);
+  transformInPlace(out);
   let kPeak = 0;
   let pPeak = -1;
   for (let k = 0; k < size; k++) {

@@ -138,9 +138,24 @@ export function fundamentalRate(
 
 /** Moving average of x over `length` samples, centred (edges use what is there). */
 export function movingAverage(x: ArrayLike<number>, length: number): Float64Array {
+  return movingAverageInto(x, length, new Float64Array(x.length));
+}
+
+/**
+ * movingAverage written over x itself (the same sums in the same order: the values that leave
+ * the window are kept in a ring of h + 1 as they are overwritten), for a caller that no longer
+ * needs x. Returns x.
+ */
+export function movingAverageInPlace(x: Float64Array, length: number): Float64Array {
+  return movingAverageInto(x, length, x);
+}
+
+function movingAverageInto(x: ArrayLike<number>, length: number, out: Float64Array): Float64Array {
   const n = x.length;
-  const out = new Float64Array(n);
   const h = Math.max(0, Math.floor(length / 2));
+  // x[j] leaves the window at step j + h + 1; out[j] is written at step j, so when out is x the
+  // leaving value is read from the ring, where it was put before x[j] was overwritten.
+  const ring = new Float64Array(h + 1);
   let sum = 0;
   let lo = 0;
   let hi = -1;
@@ -148,7 +163,8 @@ export function movingAverage(x: ArrayLike<number>, length: number): Float64Arra
     const a = Math.max(0, i - h);
     const b = Math.min(n - 1, i + h);
     while (hi < b) sum += x[++hi] as number;
-    while (lo < a) sum -= x[lo++] as number;
+    while (lo < a) { sum -= ring[lo % (h + 1)] as number; lo++; }
+    ring[i % (h + 1)] = x[i] as number;
     out[i] = sum / (b - a + 1);
   }
   return out;

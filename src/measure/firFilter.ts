@@ -6,12 +6,13 @@
 import { fftPlan } from "../dsp/index.js";
 
 /**
- * y[n] = Σ_k h[k]·x[n + D − k], D = (L − 1)/2, for n = 0 … N − 1 (x taken as 0 outside 0 … N − 1):
- * the output lines up in time with the input for the symmetric odd-length taps of
- * `designLowpass`. The first and last D outputs see the zero padding (the filter's transient);
- * `transientLength` says how many to skip. Cost O(N log L).
+ * y[n] = Σ_k h[k]·(x[n + D − k] − offset), D = (L − 1)/2, for n = 0 … N − 1 (x − offset taken as
+ * 0 outside 0 … N − 1): the output lines up in time with the input for the symmetric odd-length
+ * taps of `designLowpass`. The first and last D outputs see the zero padding (the filter's
+ * transient); `transientLength` says how many to skip. `offset` (default 0) is subtracted from
+ * each input as it is read, so a caller need not make a copy of x − offset. Cost O(N log L).
  */
-export function filterLinearPhase(x: ArrayLike<number>, taps: Float64Array): Float64Array {
+export function filterLinearPhase(x: ArrayLike<number>, taps: Float64Array, offset = 0): Float64Array {
   const n = x.length;
   const tapCount = taps.length;
   const delay = (tapCount - 1) >> 1;
@@ -32,7 +33,7 @@ export function filterLinearPhase(x: ArrayLike<number>, taps: Float64Array): Flo
   for (let start = 0; start < n; start += block) {
     const len = Math.min(block, n - start);
     xBuf.fill(0);
-    for (let i = 0; i < len; i++) xBuf[2 * i] = x[start + i] as number;
+    for (let i = 0; i < len; i++) xBuf[2 * i] = (x[start + i] as number) - offset;
     plan.forward(xSpec, xBuf);
     for (let k = 0; k < size; k++) {
       const ar = xSpec[2 * k] as number;

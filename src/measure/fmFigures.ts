@@ -111,14 +111,10 @@ export function fmFigures(iq: Float32Array, sampleRateHz: number, options: FmFig
   ];
   const carrier = carrierEstimate(f, sampleRateHz);
   const ref = options.carrierOffsetHz ?? (carrier.value as number);
-  const d = new Float64Array(f.length);
+  // The deviation d = f − ref is read from f as it is needed, never stored (8 bytes a sample).
   let rawPeak = 0;
-  for (let i = 0; i < f.length; i++) {
-    const v = (f[i] as number) - ref;
-    d[i] = v;
-    if (Math.abs(v) > rawPeak) rawPeak = Math.abs(v);
-  }
-  const a = filterLinearPhase(d, taps);
+  for (let i = 0; i < f.length; i++) rawPeak = Math.max(rawPeak, Math.abs((f[i] as number) - ref));
+  const a = filterLinearPhase(f, taps, ref);
   const first = skip;
   const end = a.length - skip;
   if (end - first < 16) return tooShort(f.length, skip, w, method, carrier);
@@ -137,7 +133,7 @@ export function fmFigures(iq: Float32Array, sampleRateHz: number, options: FmFig
   const peak = Math.max(pos, neg);
   const count = end - first;
   const rms = Math.sqrt(sumSq / count);
-  const sigmaN = deviationNoiseHz(iq, d, a, taps, sampleRateHz, first, end, options.noiseFloorPerHz);
+  const sigmaN = deviationNoiseHz(iq, f, ref, a, taps, sampleRateHz, first, end, options.noiseFloorPerHz);
   // Noise raises a filtered peak by about the largest of M independent noise values,
   // σ·√(2 ln M) with M = 2W·T (Cramér's extreme-value law); below, it can lower it by about 2σ.
   const independent = Math.max(2, (count * 2 * w) / sampleRateHz);
@@ -222,7 +218,7 @@ function carrierEstimate(f: Float32Array, fs: number): Measurement<"Hz"> {
  * out-of-band modulation, so it errs on the safe side).
  */
 function deviationNoiseHz(
-  iq: Float32Array, d: Float64Array, a: Float64Array, taps: Float64Array, fs: number,
+  iq: Float32Array, f: Float32Array, ref: number, a: Float64Array, taps: Float64Array, fs: number,
   first: number, end: number, n0: number | undefined,
 ): number {
   const points = 512;
@@ -247,7 +243,7 @@ function deviationNoiseHz(
     return Math.sqrt((n0 / a2) * inBand);
   }
   let r2 = 0;
-  for (let i = first; i < end; i++) r2 += ((d[i] as number) - (a[i] as number)) ** 2;
+  for (let i = first; i < end; i++) r2 += ((f[i] as number) - ref - (a[i] as number)) ** 2;
   r2 /= Math.max(end - first, 1);
   return outBand > 0 ? Math.sqrt((r2 * inBand) / outBand) : 0;
 }

@@ -50,6 +50,6 @@ export { recoverSymbols, RECOVERY_DEFAULTS, type Recovered, type RecoveryOptions
 export { recoveryFloorPercent } from "./recoveryFloor.js";
 export { fskFigures, FSK_FIGURES_DEFAULTS, type FskFigures, type FskFiguresOptions, type FrequencyHistogram } from "./fskFigures.js";
 export { ookFigures, type OokFigures, type OokFiguresOptions } from "./ookFigures.js";
-export { burstSamples, type Bursts } from "./burstGate.js";
+export { burstSamples, burstSpans, gatherBursts, type BurstSpans, type Bursts } from "./burstGate.js";
 export { transitionTiming, type TransitionTiming, type Segments } from "./transitionTiming.js";
 export { bandLimit } from "./bandLimit.js";

@@ -4,9 +4,16 @@
  * parameter estimation from discrete-time observations", IEEE Trans. Inf. Theory IT-20(5), 1974).
  */
 
-/** X(ν) = Σ z[n]·e^(−j2πν(n − c)), z interleaved I,Q, ν in cycles per sample, c = (N − 1)/2. */
-export function dtftAt(z: Float64Array, nu: number): [number, number] {
-  const n = z.length >> 1;
+/**
+ * How a record is laid out: "iq" interleaved I,Q (N = length/2), or "real", one real value a
+ * sample (N = length, Q = 0: the same sums as the record with zero Q, without its copy).
+ */
+export type RecordLayout = "iq" | "real";
+
+/** X(ν) = Σ z[n]·e^(−j2πν(n − c)), ν in cycles per sample, c = (N − 1)/2. */
+export function dtftAt(z: Float32Array | Float64Array, nu: number, layout: RecordLayout = "iq"): [number, number] {
+  const real = layout === "real";
+  const n = real ? z.length : z.length >> 1;
   const c = (n - 1) / 2;
   let re = 0;
   let im = 0;
@@ -14,8 +21,8 @@ export function dtftAt(z: Float64Array, nu: number): [number, number] {
   for (let k = 0; k < n; k++) {
     const cs = Math.cos(w * (k - c));
     const sn = Math.sin(w * (k - c));
-    const i = z[2 * k] as number;
-    const q = z[2 * k + 1] as number;
+    const i = (real ? z[k] : z[2 * k]) as number;
+    const q = real ? 0 : (z[2 * k + 1] as number);
     re += i * cs - q * sn;
     im += i * sn + q * cs;
   }
@@ -26,8 +33,8 @@ export function dtftAt(z: Float64Array, nu: number): [number, number] {
  * Newton steps on |X(ν)|² from ν0 (cycles per sample), each step limited to ±½ of 1/N, until
  * a step is below 1e-7/N or the curvature is not negative. Returns the refined ν.
  */
-export function refinePeak(z: Float64Array, nu0: number, maxSteps = 6): number {
-  return refinePeakStep(z, nu0, maxSteps).nu;
+export function refinePeak(z: Float32Array | Float64Array, nu0: number, maxSteps = 6, layout: RecordLayout = "iq"): number {
+  return refinePeakStep(z, nu0, maxSteps, layout).nu;
 }
 
 /**
@@ -35,8 +42,11 @@ export function refinePeak(z: Float64Array, nu0: number, maxSteps = 6): number {
  * distance still left to the maximum is of that order or less: Newton converges quadratically
  * near it): the interpolation limit of the estimate.
  */
-export function refinePeakStep(z: Float64Array, nu0: number, maxSteps = 6): { nu: number; lastStep: number } {
-  const n = z.length >> 1;
+export function refinePeakStep(
+  z: Float32Array | Float64Array, nu0: number, maxSteps = 6, layout: RecordLayout = "iq",
+): { nu: number; lastStep: number } {
+  const real = layout === "real";
+  const n = real ? z.length : z.length >> 1;
   const c = (n - 1) / 2;
   const step = 1 / n;
   let nu = nu0;
@@ -48,8 +58,8 @@ export function refinePeakStep(z: Float64Array, nu0: number, maxSteps = 6): { nu
       const t = k - c;
       const cs = Math.cos(w * t);
       const sn = Math.sin(w * t);
-      const i = z[2 * k] as number;
-      const q = z[2 * k + 1] as number;
+      const i = (real ? z[k] : z[2 * k]) as number;
+      const q = real ? 0 : (z[2 * k + 1] as number);
       const er = i * cs - q * sn;
       const ei = i * sn + q * cs;
       // d/dν multiplies by −j2πt, d²/dν² by −(2πt)².

@@ -18,8 +18,8 @@
  * around each instant that the interpolation reads, the frequency-shifted record as the output of
  * shifted taps (matchedFilter.ts, filteredAt), so no shifted copy of the record is made. One
  * padded transform of ≥ 4·K points serves every carrier estimate. At most maxSymbols symbols
- * (K ≤ 2^15 by default) are recovered: 16·K bytes a symbol array (512 KiB), 48·4·K bytes for the
- * transform (6 MiB), 8 bytes an input sample for |y|² (K·sps samples).
+ * (K ≤ 2^15 by default) are recovered: 16·K bytes a symbol array (512 KiB), 16·4·K bytes for the
+ * transform, done in place (2 MiB), 8 bytes an input sample for |y|² (K·sps samples).
  */
 import { CONSTELLATION_KINDS, rootRaisedCosineTaps, type ConstellationKind } from "../dsp/index.js";
 import { derotate, lineTransform, powerLineCarrier, trackPhase, type LineTransform } from "./carrierRecovery.js";

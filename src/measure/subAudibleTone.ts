@@ -18,7 +18,7 @@
  * Signal Processing: Estimation Theory, 1993, Example 3.14; a lower bound: the Hann window
  * costs some efficiency), plus 0.01 bin for the interpolation; amplitude 2·√(2σ²·Σw²)/Σw.
  */
-import { designLowpass, fftPlan } from "../dsp/index.js";
+import { designLowpass, transformInPlace } from "../dsp/index.js";
 import { filterLinearPhase, transientLength } from "./firFilter.js";
 import { nearestCtcssToneHz } from "./ctcssTones.js";
 import { measurement, notAvailable, type Measurement } from "./measurement.js";
@@ -131,11 +131,9 @@ export function subAudibleTone(
 function paddedPowerSpectrum(a: Float64Array, w: Float64Array, pad: number): Float64Array {
   let size = 2;
   while (size < pad * a.length) size *= 2;
-  const plan = fftPlan(size);
-  const input = plan.createBuffer();
-  const out = plan.createBuffer();
-  for (let i = 0; i < a.length; i++) input[2 * i] = (a[i] as number) * (w[i] as number);
-  plan.forward(out, input);
+  const out = new Float64Array(2 * size);
+  for (let i = 0; i < a.length; i++) out[2 * i] = (a[i] as number) * (w[i] as number);
+  transformInPlace(out);
   const p = new Float64Array(size / 2 + 1);
   for (let k = 0; k <= size / 2; k++) p[k] = (out[2 * k] as number) ** 2 + (out[2 * k + 1] as number) ** 2;
   return p;

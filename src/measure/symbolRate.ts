@@ -27,7 +27,7 @@
  * with ρ = |X(f̂)|²/(N·b) the line-to-background ratio per sample (Rife & Boorstyn 1974); the
  * feature's background is self-noise rather than white noise, so the figure is indicative.
  */
-import { fftPlan } from "../dsp/index.js";
+import { transformInPlace } from "../dsp/index.js";
 import { instantaneousFrequencyHz } from "./fmDiscriminator.js";
 import { measurement, notAvailable, type Measurement } from "./measurement.js";
 import { dtftAt, lineFrequencyCrbVariance, refinePeak } from "./periodogramPeak.js";
@@ -114,10 +114,8 @@ export function symbolRateBlind(iq: Float32Array | Float64Array, sampleRateHz: n
   if (!(ratio > threshold)) {
     return notAvailable("Bd", method, `no line stands clear of the ${kind} background in ${lo.toFixed(1)}..${hi.toFixed(1)} Bd (peak ${ratio.toFixed(1)}× the background, needs ${threshold.toFixed(1)}×); a roll-off near 0 gives a weak line`);
   }
-  const z = new Float64Array(2 * n);
-  for (let k = 0; k < n; k++) z[2 * k] = feature[k] as number;
-  const nu = refinePeak(z, kPeak / size);
-  const [xr, xi] = dtftAt(z, nu);
+  const nu = refinePeak(feature, kPeak / size, 6, "real");
+  const [xr, xi] = dtftAt(feature, nu, "real");
   const rho = (xr * xr + xi * xi) / (n * background);
   const crbVar = lineFrequencyCrbVariance(rho, n) * sampleRateHz * sampleRateHz;
   const warnings: string[] = [];
@@ -132,16 +130,14 @@ export function symbolRateBlind(iq: Float32Array | Float64Array, sampleRateHz: n
  * transforms of the even and odd samples, E[k] = (Z[k] + Z*[M−k])/2 and
  * O[k] = (Z[k] − Z*[M−k])/(2j), M = size/2, and X[k] = E[k] + e^(−j2πk/size)·O[k] (the standard
  * real-input packing, e.g. Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed.,
- * problem 9.41; from memory). Half the transform of padding x as a complex record, so half its
- * memory (16 bytes a point for each buffer and for the plan's table).
+ * problem 9.41; from memory). The M points are transformed in place: 8 bytes a point of the
+ * padded length (8 MiB for 2^20), and |X|² (4 MiB).
  */
 function paddedRealPower(x: Float64Array, size: number): Float64Array {
   const m = size >> 1;
-  const plan = fftPlan(m);
-  const input = plan.createBuffer();
-  const out = plan.createBuffer();
-  for (let k = 0; k < x.length; k++) input[k] = x[k] as number;
-  plan.forward(out, input);
+  const out = new Float64Array(2 * m);
+  out.set(x);
+  transformInPlace(out);
   const power = new Float64Array(m + 1);
   for (let k = 0; k <= m; k++) {
     const a = 2 * (k % m);

@@ -15,7 +15,7 @@
  *    practice of non-data-aided carrier estimation, e.g. Viterbi & Viterbi 1983 for the power
  *    law). Offsets up to ±Rs/(2p) are unambiguous.
  */
-import { fftPlan } from "../dsp/index.js";
+import { transformInPlace } from "../dsp/index.js";
 import { filterLinearPhase } from "./firFilter.js";
 
 /** RRC roll-off from OBW / Rs (REFERENCES.md §3 table, linear between its rows). */
@@ -145,12 +145,10 @@ function powerLawOffset(s: Float64Array): { p: 2 | 4 | 8 | null; ratio: number; 
   if (k < 16) return { p: null, ratio: 0, cyclesPerSymbol: 0 };
   let size = 2;
   while (size < 4 * k) size *= 2;
-  const plan = fftPlan(size);
-  const a = plan.createBuffer();
-  const b = plan.createBuffer();
+  const b = new Float64Array(2 * size);
   let best = { p: null as 2 | 4 | 8 | null, ratio: 0, cyclesPerSymbol: 0 };
   for (const p of [2, 4, 8] as const) {
-    a.fill(0);
+    b.fill(0);
     for (let j = 0; j < k; j++) {
       // s^p by repeated squaring (p = 2, 4, 8).
       let re = s[2 * j] as number;
@@ -160,10 +158,10 @@ function powerLawOffset(s: Float64Array): { p: 2 | 4 | 8 | null; ratio: number; 
         im = 2 * re * im;
         re = r2;
       }
-      a[2 * j] = re;
-      a[2 * j + 1] = im;
+      b[2 * j] = re;
+      b[2 * j + 1] = im;
     }
-    plan.forward(b, a);
+    transformInPlace(b);
     let peak = 0;
     let at = 0;
     let sum = 0;

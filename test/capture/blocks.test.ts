@@ -54,6 +54,21 @@ describe("source.blocks(span, blockSamples)", () => {
     }
   });
 
+  it("blocks() with reuse hands out views of one array, each holding the same samples as one read", async () => {
+    for (const source of await sources()) {
+      const whole = await readAll(source, { startSample: 0, sampleCount: N }, N);
+      const got: number[] = [];
+      const buffers = new Set<ArrayBufferLike>();
+      for await (const block of source.blocks({ startSample: 7, sampleCount: N - 7 }, 500, { reuse: true })) {
+        got.push(...block); // copied before the next block overwrites it
+        buffers.add(block.buffer);
+      }
+      expect(buffers.size, source.meta.container).toBe(1);
+      expect(Float32Array.from(got)).toEqual(whole.subarray(14));
+      await source.close();
+    }
+  });
+
   it("blocks() iterations interleaved on one source do not disturb each other (reads are positioned)", async () => {
     for (const source of await sources()) {
       const whole = await readAll(source, undefined, N);

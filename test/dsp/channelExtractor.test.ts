@@ -126,6 +126,19 @@ describe("ChannelExtractor({ sampleRateHz: 2.4e6, offsetHz: 317e3, bandwidthHz: 
     expect(b).toEqual(a);
   });
 
+  it("with reuseOutput hands out views of one array, with the same samples when each is copied at once", () => {
+    const x = new Float32Array(2 * 100_000);
+    complexNoise(new SeededRandom(6), x, 1);
+    const options = { sampleRateHz: FS, offsetHz: OFFSET, bandwidthHz: B };
+    const reused = new ChannelExtractor({ ...options, reuseOutput: true });
+    expect(extract(reused, x, 3)).toEqual(extract(new ChannelExtractor(options), x, 3));
+    const first = reused.push(x.subarray(0, 2 * 20_000));
+    const second = reused.push(x.subarray(2 * 20_000, 2 * 40_000));
+    expect(second.buffer).toBe(first.buffer);
+    const flat = { sampleRateHz: 48_000, offsetHz: 1000, bandwidthHz: 12_000 };
+    expect(extract(new ChannelExtractor({ ...flat, reuseOutput: true }), x, 4)).toEqual(extract(new ChannelExtractor(flat), x, 4));
+  });
+
   it("uses factor 1 when fs < 5·B, and keeps the rate", () => {
     const ex = new ChannelExtractor({ sampleRateHz: 48_000, offsetHz: 1000, bandwidthHz: 12_000 });
     expect(ex.decimation).toBe(1);

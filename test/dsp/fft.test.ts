@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { fftPlan, isFftSize, naturalBinIndex, toCentredOrder } from "../../src/dsp/index.js";
+import { fftPlan, isFftSize, naturalBinIndex, toCentredOrder, transformInPlace } from "../../src/dsp/index.js";
 import { SeededRandom } from "../../src/scenario/index.js";
 
 /** The DFT from its definition, X[k] = Σ x[n]·e^(−j2πkn/N) (Oppenheim & Schafer eq. 8.11), O(N²). */
@@ -66,6 +66,50 @@ describe("fftPlan(size)", () => {
     expect(isFftSize(1000)).toBe(false);
     expect(() => fftPlan(1000)).toThrow(/fftLength 1000 is not a power of two/);
     expect(() => fftPlan(1)).toThrow(RangeError);
+  });
+});
+
+describe("transformInPlace(x, direction)", () => {
+  it("forward agrees with the direct DFT definition at sizes below and above its short-stage span", () => {
+    const rng = new SeededRandom(2);
+    for (const n of [2, 8, 4096]) {
+      const x = new Array<number>(2 * n);
+      for (let i = 0; i < x.length; i++) x[i] = rng.gaussian();
+      const ref = directDft(x);
+      const y = Float64Array.from(x);
+      transformInPlace(y);
+      // Rounding of an N-point sum of unit-variance terms: far below 1e-9 of the √N scale.
+      let worst = 0;
+      for (let i = 0; i < y.length; i++) worst = Math.max(worst, Math.abs((y[i] as number) - (ref[i] as number)));
+      expect(worst / Math.sqrt(n)).toBeLessThan(1e-9);
+    }
+  });
+
+  it("a complex exponential at bin −5 of 2^17 points lands at natural bin N − 5 with value N, all else 0 (DFT orthogonality)", () => {
+    const n = 1 << 17;
+    const x = new Float64Array(2 * n);
+    for (let t = 0; t < n; t++) {
+      x[2 * t] = Math.cos((2 * Math.PI * -5 * t) / n);
+      x[2 * t + 1] = Math.sin((2 * Math.PI * -5 * t) / n);
+    }
+    transformInPlace(x);
+    expect(x[2 * (n - 5)]).toBeCloseTo(n, 6);
+    expect(x[2 * (n - 5) + 1]).toBeCloseTo(0, 6);
+    let rest = 0;
+    for (let k = 0; k < n; k++) if (k !== n - 5) rest = Math.max(rest, Math.hypot(x[2 * k] as number, x[2 * k + 1] as number));
+    expect(rest / n).toBeLessThan(1e-12);
+  });
+
+  it("inverse is scaled by 1/N, so inverse(forward(x)) = x; sizes that are not powers of two are refused", () => {
+    const rng = new SeededRandom(3);
+    const x = new Float64Array(2 * 2048);
+    for (let i = 0; i < x.length; i++) x[i] = rng.gaussian();
+    const y = x.slice();
+    transformInPlace(y);
+    transformInPlace(y, "inverse");
+    for (let i = 0; i < x.length; i++) expect(y[i]).toBeCloseTo(x[i] as number, 12);
+    expect(() => transformInPlace(new Float64Array(12))).toThrow(RangeError);
+    expect(() => transformInPlace(new Float64Array(2))).toThrow(RangeError);
   });
 });
 

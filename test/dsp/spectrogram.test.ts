@@ -82,10 +82,26 @@ describe("SpectrogramAccumulator", () => {
     const b = new SpectrogramAccumulator(options);
     pushBlocks([a, b], iq, parts, 4 * l);
     a.merge(structuredClone(b.snapshot()));
-    for (const s of [many.finish(), a.finish()]) {
+    // As pass 1 merges its workers: the released states (no copies) into an accumulator that
+    // holds nothing yet, which takes the first one's arrays over.
+    const c = new SpectrogramAccumulator(options);
+    const d = new SpectrogramAccumulator(options);
+    pushBlocks([c, d], iq, parts, 4 * l);
+    const merged = new SpectrogramAccumulator(options);
+    merged.merge(structuredClone(c.release()));
+    merged.merge(structuredClone(d.release()));
+    for (const s of [many.finish(), a.finish(), merged.finish()]) {
       expect(Array.from(s.framesPerRow)).toEqual(Array.from(ref.framesPerRow));
       expect(maxRelativeDifference(s.meanPerHz, ref.meanPerHz)).toBeLessThan(1e-6); // float32 output
       expect(maxRelativeDifference(s.maxPerHz, ref.maxPerHz)).toBe(0);
     }
+  });
+
+  it("a state of other settings or of the wrong size is refused, also by an accumulator that holds nothing yet", () => {
+    const options = { fftLength: 64, rowCount: 4, totalSamples: 64 * 40, sampleRateHz: 1e5 };
+    const other = new SpectrogramAccumulator({ ...options, rowCount: 5 });
+    expect(() => new SpectrogramAccumulator(options).merge(other.release())).toThrow(RangeError);
+    const short = { ...new SpectrogramAccumulator(options).release(), powerSum: new Float64Array(10) };
+    expect(() => new SpectrogramAccumulator(options).merge(short)).toThrow(RangeError);
   });
 });
