@@ -54,7 +54,7 @@ export {
   AUTO_DB_RANGE_MIN_SPAN_DB,
   AUTO_DB_RANGE_FLOOR_PERCENTILE,
 } from "./autoDbRange.js";
-export { renderSpectrogram, type SpectrogramFigureInput, type FigureLayout } from "./spectrogramFigure.js";
+export { renderSpectrogram, type SpectrogramFigureInput, type SpectrogramRegion, type FigureLayout } from "./spectrogramFigure.js";
 export {
   renderLineFigure,
   SERIES_COLOURS,

@@ -3,7 +3,7 @@ import { colourBarLabelDepthPx, colourBarWidthPx, drawColourBar } from "./colour
 import { COLOUR_RAMP_RGB, rampIndex } from "./colourRamp.js";
 import { encodePng } from "./encodePng.js";
 import { checkFigureSize, drawTitleBlock, PAGE_STYLE, pagePaddingPx, textScaleFor } from "./figureFrame.js";
-import { RgbaCanvas } from "./raster.js";
+import { measureText, RgbaCanvas, type Rgb } from "./raster.js";
 
 /** What a spectrogram figure shows. Frequencies in Hz, times in s, levels in `unitLabel`. */
 export interface SpectrogramFigureInput {
@@ -31,7 +31,27 @@ export interface SpectrogramFigureInput {
   /** Size of the whole image, at least 480 × 320 px. */
   readonly widthPx: number;
   readonly heightPx: number;
+  /** Regions to box and number over the plot (a survey's emissions and artefacts); none by default. */
+  readonly regions?: readonly SpectrogramRegion[] | undefined;
 }
+
+/**
+ * A time-frequency rectangle drawn over the spectrogram: an emission as a solid box, an artefact
+ * (a receiver's DC spike or IQ image) as a dashed one, each with its label in a tag at its
+ * top-left corner. Frequencies are offsets from the capture centre, as frequencyStartHz.
+ */
+export interface SpectrogramRegion {
+  readonly lowerHz: number;
+  readonly upperHz: number;
+  readonly startS: number;
+  readonly endS: number;
+  /** Short text of the tag, e.g. the emission's number "3". */
+  readonly label: string;
+  readonly kind: "emission" | "artefact";
+}
+
+/** Box colours: white with a dark outline reads on every colour of the ramp. */
+const REGION_STYLE = { box: [255, 255, 255] as Rgb, outline: [20, 20, 24] as Rgb, tagText: [20, 20, 24] as Rgb };
 
 /** Where the data sits in a figure: the plot rectangle in image pixels (x right, y down). */
 export interface FigureLayout {
@@ -187,10 +207,35 @@ export function renderSpectrogram(input: SpectrogramFigureInput): {
 
   const spanHz = input.frequencyStopHz - input.frequencyStartHz;
   const spanS = input.timeStopS - input.timeStartS;
-  return {
-    png: encodePng(canvas),
-    layout: { plot },
-    xOfFrequencyHz: (offsetHz) => plotLeft + ((offsetHz - input.frequencyStartHz) / spanHz) * plotWidth,
-    yOfTimeS: (t) => plotTop + ((t - input.timeStartS) / spanS) * plotHeight,
-  };
+  const xOfFrequencyHz = (offsetHz: number): number => plotLeft + ((offsetHz - input.frequencyStartHz) / spanHz) * plotWidth;
+  const yOfTimeS = (t: number): number => plotTop + ((t - input.timeStartS) / spanS) * plotHeight;
+  for (const r of input.regions ?? []) drawRegion(canvas, plot, r, xOfFrequencyHz, yOfTimeS, s);
+  return { png: encodePng(canvas), layout: { plot }, xOfFrequencyHz, yOfTimeS };
+}
+
+/** One region (SpectrogramRegion): its box clipped to the plot, at least 3 px each way, and its tag. */
+function drawRegion(
+  canvas: RgbaCanvas, plot: { x: number; y: number; width: number; height: number }, r: SpectrogramRegion,
+  xOf: (hz: number) => number, yOf: (s: number) => number, textScale: number,
+): void {
+  const clamp = (v: number, lo: number, hi: number): number => Math.min(hi, Math.max(lo, v));
+  let x0 = clamp(Math.floor(xOf(Math.min(r.lowerHz, r.upperHz))), plot.x, plot.x + plot.width - 1);
+  let x1 = clamp(Math.ceil(xOf(Math.max(r.lowerHz, r.upperHz))), plot.x, plot.x + plot.width - 1);
+  let y0 = clamp(Math.floor(yOf(Math.min(r.startS, r.endS))), plot.y, plot.y + plot.height - 1);
+  let y1 = clamp(Math.ceil(yOf(Math.max(r.startS, r.endS))), plot.y, plot.y + plot.height - 1);
+  if (x1 - x0 < 3) { x0 = Math.max(plot.x, x0 - 2); x1 = Math.min(plot.x + plot.width - 1, x0 + 4); }
+  if (y1 - y0 < 3) { y0 = Math.max(plot.y, y0 - 2); y1 = Math.min(plot.y + plot.height - 1, y0 + 4); }
+  const dash: readonly [number, number] | undefined = r.kind === "artefact" ? [5, 4] : undefined;
+  const style = { widthPx: r.kind === "artefact" ? 1 : 2, ...(dash === undefined ? {} : { dashPx: dash }) };
+  // A dark outline one pixel outside, then the white box: visible on dark and light cells alike.
+  canvas.strokeRect({ x: x0 - 1, y: y0 - 1, width: x1 - x0 + 2, height: y1 - y0 + 2 }, REGION_STYLE.outline);
+  for (const [ax, ay, bx, by] of [[x0, y0, x1, y0], [x0, y1, x1, y1], [x0, y0, x0, y1], [x1, y0, x1, y1]] as const) {
+    canvas.line(ax, ay, bx, by, REGION_STYLE.box, style);
+  }
+  const tag = measureText(r.label, textScale);
+  const tx = clamp(x0, plot.x, plot.x + plot.width - tag.widthPx - 4);
+  const ty = clamp(y0 - tag.heightPx - 4, plot.y, plot.y + plot.height - tag.heightPx - 4);
+  canvas.fillRect({ x: tx, y: ty, width: tag.widthPx + 4, height: tag.heightPx + 4 }, REGION_STYLE.box);
+  canvas.strokeRect({ x: tx, y: ty, width: tag.widthPx + 4, height: tag.heightPx + 4 }, REGION_STYLE.outline);
+  canvas.text(r.label, tx + 2, ty + 2, REGION_STYLE.tagText, { scale: textScale });
 }

@@ -4,7 +4,7 @@
  */
 import type { AnalysedCapture } from "../commands/analyseCapture.js";
 import { powerToDb } from "../dsp/index.js";
-import { autoDbRange, renderSpectrogram, type FigureLayout } from "../render/index.js";
+import { autoDbRange, renderSpectrogram, type FigureLayout, type SpectrogramRegion } from "../render/index.js";
 import { formatHz, formatRate } from "./format.js";
 
 export interface SpectrogramFigureOptions {
@@ -13,6 +13,8 @@ export interface SpectrogramFigureOptions {
   readonly heightPx: number;
   readonly dbRange?: { readonly minDb: number; readonly maxDb: number } | undefined;
   readonly reduce: "mean" | "max";
+  /** Regions boxed over the plot (a survey's emissions and artefacts), times from the span's start. */
+  readonly regions?: readonly SpectrogramRegion[] | undefined;
 }
 
 export function spectrogramFigure(
@@ -58,6 +60,7 @@ export function spectrogramFigure(
     subtitle,
     widthPx: options.widthPx,
     heightPx: options.heightPx,
+    regions: options.regions?.map((r) => ({ ...r, startS: r.startS + t0, endS: r.endS + t0 })),
   });
   return { png: figure.png, dbRange, plot: figure.layout.plot, frequencySpanHz: [frequencyStartHz, frequencyStopHz] };
 }

@@ -144,3 +144,50 @@ describe("autoDbRange", () => {
     expect(autoDbRange(new Float32Array([NaN, NaN]))).toEqual({ minDb: -100, maxDb: 0 });
   });
 });
+
+describe("renderSpectrogram regions (a survey's boxes)", () => {
+  // Decoded with pngjs (the reference decoder): the box is drawn where the axes' mapping puts the
+  // region, solid for an emission, dashed for an artefact, each with a white tag holding its label.
+  const regions = [
+    { lowerHz: -600e3, upperHz: -300e3, startS: 0.1, endS: 0.3, label: "1", kind: "emission" as const },
+    { lowerHz: 200e3, upperHz: 500e3, startS: 0.1, endS: 0.3, label: "DC", kind: "artefact" as const },
+  ];
+  const figure = renderSpectrogram(input(200, 512, { regions }));
+  const image = PNG.sync.read(figure.png);
+  const white = (x: number, y: number): boolean => {
+    const i = (Math.round(y) * image.width + Math.round(x)) * 4;
+    return image.data[i] === 255 && image.data[i + 1] === 255 && image.data[i + 2] === 255;
+  };
+  const edgeRun = (r: (typeof regions)[number]): boolean[] => {
+    const x0 = Math.ceil(figure.xOfFrequencyHz(r.lowerHz)) + 6;
+    const x1 = Math.floor(figure.xOfFrequencyHz(r.upperHz)) - 1;
+    const y = Math.ceil(figure.yOfTimeS(r.endS));
+    return Array.from({ length: x1 - x0 }, (_, k) => white(x0 + k, y));
+  };
+
+  it("draws an emission's box as a solid white line along its bottom edge", () => {
+    expect(edgeRun(regions[0]!).every((w) => w)).toBe(true);
+  });
+
+  it("draws an artefact's box dashed (white and dark cells alternate along the edge)", () => {
+    const run = edgeRun(regions[1]!);
+    const share = run.filter((w) => w).length / run.length;
+    // Dash 5 on, 4 off: 5/9 of the edge white (within a pixel of rounding at each dash).
+    expect(share).toBeGreaterThan(0.4);
+    expect(share).toBeLessThan(0.7);
+  });
+
+  it("without regions the plot holds no white pixel (the ramp's lightest colour is not white)", () => {
+    const plain = renderSpectrogram(input(200, 512));
+    const img = PNG.sync.read(plain.png);
+    const p = plain.layout.plot;
+    let whites = 0;
+    for (let y = p.y + 1; y < p.y + p.height - 1; y++) {
+      for (let x = p.x + 1; x < p.x + p.width - 1; x++) {
+        const i = (y * img.width + x) * 4;
+        if (img.data[i] === 255 && img.data[i + 1] === 255 && img.data[i + 2] === 255) whites++;
+      }
+    }
+    expect(whites).toBe(0);
+  });
+});
