@@ -5,3 +5,5 @@ export type { FolderWriter, PublishedFile } from "./folderWriter.js";
 export { removeTemporaries } from "./temporaries.js";
 export { systemReason, isSystemError } from "./outputFailure.js";
 export { REPORT_FOLDER } from "./reportFolder.js";
+export { surveyMarkdown } from "./surveyMarkdown.js";
+export type { SurveyEmission, SurveyReport } from "./surveyReport.js";
