@@ -79,6 +79,11 @@ export interface MultiChannelizerOptions {
   readonly stopbandDb?: number;
   /** Forward transform length (a power of two at least the one the channels need); default: the smallest that serves. */
   readonly fftSize?: number;
+  /**
+   * true: `push` and `flush` return views of one array a channel, overwritten by the next call
+   * (for a caller that copies the samples at once: no garbage a block); false (default): new arrays.
+   */
+  readonly reuseOutput?: boolean;
 }
 
 /** Defaults of MultiChannelizerOptions. */
@@ -135,7 +140,6 @@ export interface ChannelInfo {
 
 interface ChannelState {
   readonly info: ChannelInfo;
-  readonly keptBins: number;
   /** Bin k_c of the channel centre, in [0, N). */
   readonly centreBin: number;
   /** H_c at the kept bins, in the small transform's natural order (re, im). */
@@ -144,6 +148,8 @@ interface ChannelState {
   readonly selected: number[];
   readonly small: number[];
   readonly nco: Nco;
+  /** With reuseOutput, the array this channel's outputs are written to (grown when a call needs more). */
+  output: Float32Array | null;
 }
 
 /** Streams interleaved I,Q blocks to the decimated basebands of many channels at once. */
@@ -196,21 +202,22 @@ export class MultiChannelizer {
     this.plan = fftPlan(N);
     this.input = this.plan.createBuffer();
     this.spectrum = this.plan.createBuffer();
-    this.states = designs.map((d) => channelState(d.info, d.taps, this.plan, this.input));
+    this.states = designs.map((d) => channelState(d.info, d.taps, this.plan, this.input, options.reuseOutput === true));
     this.input.fill(0);
     this.channels = designs.map((d) => d.info);
   }
 
   /**
    * Takes the next samples (interleaved I,Q, any even length; pushes are consecutive) and returns,
-   * for each channel in order, the outputs the completed blocks give (interleaved, a new array).
+   * for each channel in order, the outputs the completed blocks give (interleaved; a new array, or
+   * with reuseOutput the channel's, valid until the next call).
    */
   push(iq: Float32Array): Float32Array[] {
     if (this.flushed) throw new RangeError("push after flush: the stream has ended");
     if (iq.length % 2 !== 0) throw new RangeError(`iq length ${iq.length} is not even (interleaved I,Q)`);
     const n = iq.length / 2;
     const blocks = Math.floor((this.fill + n) / this.blockSamples);
-    const outs = this.states.map((s) => new Float32Array(2 * blocks * (this.blockSamples / s.info.decimation)));
+    const outs = this.states.map((s) => outputArray(s, 2 * blocks * (this.blockSamples / s.info.decimation)));
     let done = 0;
     let written = 0;
     while (done < n) {
@@ -234,7 +241,7 @@ export class MultiChannelizer {
     if (this.flushed) throw new RangeError("flush twice: the stream has ended");
     this.flushed = true;
     const rest = this.fill;
-    const outs = this.states.map((s) => new Float32Array(2 * Math.ceil(rest / s.info.decimation)));
+    const outs = this.states.map((s) => outputArray(s, 2 * Math.ceil(rest / s.info.decimation)));
     if (rest === 0) return outs;
     this.input.fill(0, 2 * (this.overlapSamples + rest));
     this.processBlock(outs, 0, rest);
@@ -289,7 +296,7 @@ function designChannel(c: ChannelSpec, index: number, fs: number, stopbandDb: nu
  * which the caller clears) of h[n]·e^(j2π·Δ·n/fs): its bin q is Σ h[n]·e^(−j2π(q/N − Δ/fs)n),
  * the response of h_c at bin k_c + q.
  */
-function channelState(info: ChannelInfo, taps: Float64Array, plan: FftPlan, scratch: number[]): ChannelState {
+function channelState(info: ChannelInfo, taps: Float64Array, plan: FftPlan, scratch: number[], reuse: boolean): ChannelState {
   const N = plan.size;
   const fs = info.outputRateHz * info.decimation;
   const nearest = Math.round((info.offsetHz * N) / fs);
@@ -311,9 +318,17 @@ function channelState(info: ChannelInfo, taps: Float64Array, plan: FftPlan, scra
   }
   const small = fftPlan(kept);
   return {
-    info, keptBins: kept, centreBin: ((nearest % N) + N) % N, response, plan: small,
+    info, centreBin: ((nearest % N) + N) % N, response, plan: small,
     selected: small.createBuffer(), small: small.createBuffer(), nco: new Nco(residualHz, info.outputRateHz),
+    output: reuse ? new Float32Array(0) : null,
   };
+}
+
+/** A new array of `length` values, or with reuseOutput a view of the channel's own. */
+function outputArray(s: ChannelState, length: number): Float32Array {
+  if (s.output === null) return new Float32Array(length);
+  if (s.output.length < length) s.output = new Float32Array(length + (length >> 1));
+  return s.output.subarray(0, length);
 }
 
 /** Copies `count` floats of `from` (from index a) into the plain array `to` (from index b). */

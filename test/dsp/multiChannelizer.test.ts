@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { designLowpass, fftPlan, MultiChannelizer, type ChannelInfo, type ChannelSpec } from "../../src/dsp/index.js";
+import { ChannelExtractor, designLowpass, fftPlan, MultiChannelizer, type ChannelInfo, type ChannelSpec } from "../../src/dsp/index.js";
 import { complexNoise, SeededRandom } from "../../src/scenario/index.js";
 import { complexTone, randomPartition } from "./blocks.js";
 
@@ -147,6 +147,46 @@ describe("MultiChannelizer against direct computation (mix by an exact exponenti
   });
 });
 
+/**
+ * (1/M)·Σ y[m]·e^(−j2πδ·(m/fsOut − delayS)) over m ≥ skip: the complex amplitude of a tone at δ
+ * in y, referred to the input's time (the filter's delay taken off); exact for one tone.
+ */
+function amplitudeAt(y: Float32Array, deltaHz: number, fsOut: number, delayS: number, skip: number): [number, number] {
+  let re = 0;
+  let im = 0;
+  let count = 0;
+  for (let m = skip; m < y.length / 2; m++, count++) {
+    const a = -2 * Math.PI * deltaHz * (m / fsOut - delayS);
+    re += (y[2 * m] as number) * Math.cos(a) - (y[2 * m + 1] as number) * Math.sin(a);
+    im += (y[2 * m] as number) * Math.sin(a) + (y[2 * m + 1] as number) * Math.cos(a);
+  }
+  return [re / count, im / count];
+}
+
+describe("MultiChannelizer against the single-channel ChannelExtractor (NCO and a cascade of Kaiser stages)", () => {
+  for (const deltaHz of [0, 6_100, -11_900]) {
+    it(`gives a tone at 317 123.4 + ${deltaHz} Hz the same complex amplitude, referred to input time, within both ripples`, () => {
+      const T = 300_000;
+      const x = complexTone(T, 0.5, 317_123.4 + deltaHz, FS, 0.3);
+      const spec = { offsetHz: 317_123.4, bandwidthHz: 25_000 };
+      const mc = new MultiChannelizer({ sampleRateHz: FS, channels: [spec] });
+      const c = mc.channels[0] as ChannelInfo;
+      const [y] = run(mc, x, 21) as [Float32Array];
+      const ex = new ChannelExtractor({ sampleRateHz: FS, ...spec });
+      const parts: number[] = [];
+      for (const [a, b] of randomPartition(T, 30_000, 22)) parts.push(...ex.push(x.subarray(2 * a, 2 * b)));
+      const z = Float32Array.from(parts);
+      const [ar, ai] = amplitudeAt(y, deltaHz, c.outputRateHz, c.delayS, settled(c));
+      const [br, bi] = amplitudeAt(z, deltaHz, ex.outputRateHz, ex.delayS, Math.ceil(ex.delayS * ex.outputRateHz) + 2);
+      // Both are linear-phase: each gives 0.5·e^(j0.3)·|H(δ)|. Ours within ±δ of 1; the extractor's
+      // two stages (6·6) each within ±2δ (firDesign): 5δ together, 1e-5 for float32 rounding.
+      expect(ex.stageFactors.length).toBe(2);
+      expect(Math.hypot(ar - br, ai - bi) / 0.5).toBeLessThan(5 * DELTA + 1e-5);
+      expect(Math.hypot(ar - 0.5 * Math.cos(0.3), ai - 0.5 * Math.sin(0.3)) / 0.5).toBeLessThan(DELTA + 1e-5);
+    });
+  }
+});
+
 describe("MultiChannelizer: tones (closed form of a tone through a linear-phase filter)", () => {
   for (const [offsetHz, deltaHz] of [[317_123.4, 7_000], [317_123.4, -12_400], [-402_777.7, 3_210.5], [1_191_000, 19_000]] as const) {
     it(`a tone at ${offsetHz} + ${deltaHz} Hz leaves at ${deltaHz} Hz, amplitude and phase within δ(2 + leakage)·a of the closed form, continuous over blocks of random lengths`, () => {
@@ -200,6 +240,18 @@ describe("MultiChannelizer: streaming", () => {
       const pieces = run(new MultiChannelizer({ sampleRateHz: FS, channels: CHANNELS }), x, seed, seed === 1 ? 300 : 50_000);
       pieces.forEach((y, i) => expect(y).toEqual(whole[i]));
     }
+  });
+
+  it("with reuseOutput hands out views of one array a channel, with the same samples when each is copied at once", () => {
+    const x = new Float32Array(2 * 60_000);
+    complexNoise(new SeededRandom(9), x, 1);
+    const reused = new MultiChannelizer({ sampleRateHz: FS, channels: CHANNELS, reuseOutput: true });
+    const fresh = run(new MultiChannelizer({ sampleRateHz: FS, channels: CHANNELS }), x, 6);
+    run(reused, x, 6).forEach((y, i) => expect(y).toEqual(fresh[i]));
+    const again = new MultiChannelizer({ sampleRateHz: FS, channels: CHANNELS, reuseOutput: true });
+    const first = again.push(x.subarray(0, 2 * 20_000));
+    const second = again.push(x.subarray(2 * 20_000, 2 * 40_000));
+    expect((second[0] as Float32Array).buffer).toBe((first[0] as Float32Array).buffer);
   });
 
   it("gives ten channels from one stream that equal ten single-channel runs of the same transform length", () => {
