@@ -92,7 +92,7 @@ export const MULTI_CHANNELIZER_DEFAULTS = { stopbandDb: 80 } as const;
 /** Smallest ratio of a channel's output rate to its bandwidth (Nyquist for a complex signal of width B is B; 2 leaves the filter a transition band). */
 export const MIN_CHANNEL_RATE_OVER_BANDWIDTH = 2;
 
-/** Largest decimation of a channel: its filter (about 30·D taps) must fit the largest transform. */
+/** Largest decimation of a channel: its filter (some 21–23·D taps at 80 dB) must fit the largest transform. */
 export const MAX_DECIMATION = 1024;
 
 /** Largest forward transform, points (8 MiB of plan and buffers). */
