@@ -22,7 +22,7 @@
  * doubling search and bisection, for long filters), so the spec is a promise.
  * Passband ripple is then about ±δ, i.e. ±8.7e-4 dB at A = 80 dB.
  */
-import { fftPlan } from "./fft.js";
+import { fftPlan, transformInPlace } from "./fft.js";
 
 /** The specification of a Kaiser-window low-pass (all frequencies in Hz, attenuation in dB). */
 export interface LowpassSpec {
@@ -38,6 +38,9 @@ export interface LowpassSpec {
 
 /** Factor (−0.09 dB) on δ covering a sidelobe peak that falls between FFT grid points. */
 const GRID_MARGIN = 0.99;
+
+/** Largest check run through a cached fft.js plan; longer filters (over 4096 taps) use transformInPlace. */
+const LARGEST_PLANNED_CHECK = 1 << 16;
 
 /** Largest tap count `designLowpass` will produce, a guard against absurd specs (memory). */
 export const MAX_TAP_COUNT = 1 << 20;
@@ -103,12 +106,14 @@ export function designLowpass(spec: LowpassSpec): Float64Array {
   const beta = kaiserBeta(stopbandDb);
   const centreHz = cutoffHz + transitionHz / 2;
   const limit = Math.pow(10, -stopbandDb / 20);
+  // The long filters' checks share one transform array (see peakStopbandGain).
+  const scratch: { x: Float64Array | null } = { x: null };
   const meets = (tapCount: number): Float64Array | null => {
     if (tapCount > MAX_TAP_COUNT) {
       throw new RangeError(`tap count ${tapCount} for this spec exceeds ${MAX_TAP_COUNT}: widen transitionHz`);
     }
     const taps = kaiserSinc(tapCount, centreHz / sampleRateHz, beta);
-    return peakStopbandGain(taps, (cutoffHz + transitionHz) / sampleRateHz) <= GRID_MARGIN * limit ? taps : null;
+    return peakStopbandGain(taps, (cutoffHz + transitionHz) / sampleRateHz, scratch) <= GRID_MARGIN * limit ? taps : null;
   };
   return shortestMeeting(kaiserTapCount(stopbandDb, transitionHz, sampleRateHz), meets);
 }
@@ -204,19 +209,35 @@ function kaiserSinc(tapCount: number, centre: number, beta: number): Float64Arra
  * points a sidelobe peak can be at most about 1 % higher (a quadratic peak sampled at 1/16 of its
  * width), which the caller's margin covers.
  */
-function peakStopbandGain(taps: Float64Array, stopEdge: number): number {
+function peakStopbandGain(taps: Float64Array, stopEdge: number, scratch: { x: Float64Array | null }): number {
   let size = 1024;
   while (size < 16 * taps.length) size *= 2;
+  if (size > LARGEST_PLANNED_CHECK) {
+    // A long filter: one Float64Array, reused by the checks of one design, transformed in place
+    // (16 bytes a point, where an uncached plan and its two buffers take 48 and were garbage
+    // after each check: a 24 000-tap filter's checks of 2^19 points peaked near 100 MiB of them).
+    if (scratch.x?.length !== 2 * size) scratch.x = new Float64Array(2 * size);
+    const x = scratch.x;
+    x.fill(0);
+    for (let n = 0; n < taps.length; n++) x[2 * n] = taps[n] as number;
+    transformInPlace(x, "forward");
+    return peakOnGrid(x, size, taps, stopEdge);
+  }
   const plan = fftPlan(size);
   const input = plan.createBuffer();
   const out = plan.createBuffer();
   for (let n = 0; n < taps.length; n++) input[2 * n] = taps[n] as number;
   plan.forward(out, input);
+  return peakOnGrid(out, size, taps, stopEdge);
+}
+
+/** The largest |H| over the grid points of the transform `spectrum` (size points) at or above `stopEdge`, and at the edge itself. */
+function peakOnGrid(spectrum: ArrayLike<number>, size: number, taps: Float64Array, stopEdge: number): number {
   // The response still falls steeply at the edge itself, between grid points: evaluate it there.
   let peak = firResponse(taps, stopEdge, 1);
   for (let k = Math.floor(stopEdge * size); k <= size / 2; k++) {
     if (k / size < stopEdge) continue;
-    const g = Math.hypot(out[2 * k] as number, out[2 * k + 1] as number);
+    const g = Math.hypot(spectrum[2 * k] as number, spectrum[2 * k + 1] as number);
     if (g > peak) peak = g;
   }
   return peak;
