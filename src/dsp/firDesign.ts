@@ -18,10 +18,11 @@
  * scaled to sum to 1 (unity DC gain). Kaiser's order formula is an estimate (Oppenheim & Schafer
  * §7.6.1 give it as accurate to about ±2 taps; at A = 80 dB it falls some 10 % short in our
  * trials, e.g. 77 taps estimated, 85 needed for Δf = fs/15); `designLowpass` checks the result on a dense
- * grid (an FFT) and lengthens it two taps at a time until the stopband is met, so the spec is a promise.
+ * grid (an FFT) and lengthens it two taps at a time until the stopband is met (past 16 steps by a
+ * doubling search and bisection, for long filters), so the spec is a promise.
  * Passband ripple is then about ±δ, i.e. ±8.7e-4 dB at A = 80 dB.
  */
-import { fftPlan } from "./fft.js";
+import { fftPlan, transformInPlace } from "./fft.js";
 
 /** The specification of a Kaiser-window low-pass (all frequencies in Hz, attenuation in dB). */
 export interface LowpassSpec {
@@ -37,6 +38,9 @@ export interface LowpassSpec {
 
 /** Factor (−0.09 dB) on δ covering a sidelobe peak that falls between FFT grid points. */
 const GRID_MARGIN = 0.99;
+
+/** Largest check run through a cached fft.js plan; longer filters (over 4096 taps) use transformInPlace. */
+const LARGEST_PLANNED_CHECK = 1 << 16;
 
 /** Largest tap count `designLowpass` will produce, a guard against absurd specs (memory). */
 export const MAX_TAP_COUNT = 1 << 20;
@@ -102,15 +106,53 @@ export function designLowpass(spec: LowpassSpec): Float64Array {
   const beta = kaiserBeta(stopbandDb);
   const centreHz = cutoffHz + transitionHz / 2;
   const limit = Math.pow(10, -stopbandDb / 20);
-  let tapCount = kaiserTapCount(stopbandDb, transitionHz, sampleRateHz);
-  for (;;) {
+  // The long filters' checks share one transform array (see peakStopbandGain).
+  const scratch: { x: Float64Array | null } = { x: null };
+  const meets = (tapCount: number): Float64Array | null => {
     if (tapCount > MAX_TAP_COUNT) {
       throw new RangeError(`tap count ${tapCount} for this spec exceeds ${MAX_TAP_COUNT}: widen transitionHz`);
     }
     const taps = kaiserSinc(tapCount, centreHz / sampleRateHz, beta);
-    if (peakStopbandGain(taps, (cutoffHz + transitionHz) / sampleRateHz) <= GRID_MARGIN * limit) return taps;
-    tapCount += 2;
+    return peakStopbandGain(taps, (cutoffHz + transitionHz) / sampleRateHz, scratch) <= GRID_MARGIN * limit ? taps : null;
+  };
+  return shortestMeeting(kaiserTapCount(stopbandDb, transitionHz, sampleRateHz), meets);
+}
+
+/** Steps of 2 taps tried one by one before the search gallops. */
+const LINEAR_STEPS = 16;
+
+/**
+ * The first odd tap count from `start` on, in steps of 2, whose design `meets` the stopband: the
+ * first LINEAR_STEPS steps one by one (every short filter), then, since each check costs a
+ * transform of 16 points a tap, by doubling steps and bisection back to the shortest passing
+ * count, which is the same count where the stopband peak falls with length (Kaiser designs
+ * of one β: a longer window, a steeper transition).
+ */
+function shortestMeeting(start: number, meets: (tapCount: number) => Float64Array | null): Float64Array {
+  let tapCount = start;
+  for (let i = 0; i < LINEAR_STEPS; i++, tapCount += 2) {
+    const taps = meets(tapCount);
+    if (taps !== null) return taps;
   }
+  let failing = tapCount - 2;
+  let step = 4;
+  let passing: Float64Array | null = null;
+  while (passing === null) {
+    tapCount = failing + step;
+    passing = meets(tapCount);
+    if (passing === null) failing = tapCount;
+    step *= 2;
+  }
+  let good = tapCount;
+  while (good - failing > 2) {
+    const middle = failing + 2 * Math.floor((good - failing) / 4);
+    const taps = meets(middle);
+    if (taps !== null) {
+      good = middle;
+      passing = taps;
+    } else failing = middle;
+  }
+  return passing;
 }
 
 /**
@@ -167,19 +209,35 @@ function kaiserSinc(tapCount: number, centre: number, beta: number): Float64Arra
  * points a sidelobe peak can be at most about 1 % higher (a quadratic peak sampled at 1/16 of its
  * width), which the caller's margin covers.
  */
-function peakStopbandGain(taps: Float64Array, stopEdge: number): number {
+function peakStopbandGain(taps: Float64Array, stopEdge: number, scratch: { x: Float64Array | null }): number {
   let size = 1024;
   while (size < 16 * taps.length) size *= 2;
+  if (size > LARGEST_PLANNED_CHECK) {
+    // A long filter: one Float64Array, reused by the checks of one design, transformed in place
+    // (16 bytes a point, where an uncached plan and its two buffers take 48 and were garbage
+    // after each check: a 24 000-tap filter's checks of 2^19 points peaked near 100 MiB of them).
+    if (scratch.x?.length !== 2 * size) scratch.x = new Float64Array(2 * size);
+    const x = scratch.x;
+    x.fill(0);
+    for (let n = 0; n < taps.length; n++) x[2 * n] = taps[n] as number;
+    transformInPlace(x, "forward");
+    return peakOnGrid(x, size, taps, stopEdge);
+  }
   const plan = fftPlan(size);
   const input = plan.createBuffer();
   const out = plan.createBuffer();
   for (let n = 0; n < taps.length; n++) input[2 * n] = taps[n] as number;
   plan.forward(out, input);
+  return peakOnGrid(out, size, taps, stopEdge);
+}
+
+/** The largest |H| over the grid points of the transform `spectrum` (size points) at or above `stopEdge`, and at the edge itself. */
+function peakOnGrid(spectrum: ArrayLike<number>, size: number, taps: Float64Array, stopEdge: number): number {
   // The response still falls steeply at the edge itself, between grid points: evaluate it there.
   let peak = firResponse(taps, stopEdge, 1);
   for (let k = Math.floor(stopEdge * size); k <= size / 2; k++) {
     if (k / size < stopEdge) continue;
-    const g = Math.hypot(out[2 * k] as number, out[2 * k + 1] as number);
+    const g = Math.hypot(spectrum[2 * k] as number, spectrum[2 * k + 1] as number);
     if (g > peak) peak = g;
   }
   return peak;

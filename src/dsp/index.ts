@@ -27,3 +27,7 @@ export {
   constellation, qamGrid, CONSTELLATION_KINDS, CONSTELLATION_ORDER, type ConstellationKind,
 } from "./constellations.js";
 export { rootRaisedCosine, rootRaisedCosineTaps } from "./rootRaisedCosine.js";
+export {
+  MultiChannelizer, MULTI_CHANNELIZER_DEFAULTS, MIN_CHANNEL_RATE_OVER_BANDWIDTH, MAX_DECIMATION, MAX_FFT_SIZE,
+  DESIGN_MARGIN_DB, toneLeakage, type ChannelSpec, type ChannelInfo, type MultiChannelizerOptions,
+} from "./multiChannelizer.js";
