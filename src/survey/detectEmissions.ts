@@ -92,7 +92,7 @@ export function detectEmissions(input: SurveyInput, options: DetectEmissionsOpti
   });
   let cells = 0;
   for (let r = 0; r < s.rowCount; r++) if ((s.framesPerRow[r] as number) > 0) cells += s.fftLength;
-  const warnings = groups.length > 0 && map.regions.length > 10_000 ? [`${map.regions.length} regions above the threshold: the floor may be wrong`] : [];
+  const warnings = map.regions.length > 10_000 ? [`${map.regions.length} regions above the threshold: the floor may be wrong`] : [];
   return { emissions, floor, thresholds, expectedFalseSeeds: cells * o.pfa, warnings };
 }
 

@@ -34,15 +34,18 @@ export function mergeRegions(map: RegionMap, rowCount: number, fftLength: number
     return i;
   };
   const extents: Extent[] = map.regions.map((r: Region) => ({ ...r }));
+  // Passes over the pairs of groups, each joining what it can, until one joins nothing: a pass
+  // is O(G²), and a join can only make another possible, so few passes are needed.
   let changed = true;
   while (changed) {
     changed = false;
     const roots = [...new Set(owner.map((_, i) => find(i)))];
-    for (let a = 0; a < roots.length && !changed; a++) {
-      for (let b = a + 1; b < roots.length && !changed; b++) {
-        const ra = roots[a] as number;
+    for (let a = 0; a < roots.length; a++) {
+      const ra = roots[a] as number;
+      if (find(ra) !== ra) continue;
+      for (let b = a + 1; b < roots.length; b++) {
         const rb = roots[b] as number;
-        if (!belongTogether(extents[ra] as Extent, extents[rb] as Extent, gapBins)) continue;
+        if (find(rb) !== rb || !belongTogether(extents[ra] as Extent, extents[rb] as Extent, gapBins)) continue;
         owner[rb] = ra;
         extents[ra] = union(extents[ra] as Extent, extents[rb] as Extent);
         changed = true;

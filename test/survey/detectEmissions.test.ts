@@ -2,6 +2,7 @@
 // known emissions, no false emission in noise (flat or sloped), and receiver artefacts marked.
 import { describe, expect, it } from "vitest";
 import { WelchAccumulator } from "../../src/dsp/index.js";
+import { ParameterError } from "../../src/errors.js";
 import { occupiedBandwidth } from "../../src/measure/index.js";
 import {
   SeededRandom, amFromAudio, applyReceiver, burstGate, complexNoise, fmFromAudio, frequencyShift, imageRejectionDb,
@@ -93,8 +94,8 @@ describe("detectEmissions(pass 1) on a 1 MS/s band of six emissions", async () =
   });
 
   it("finds the six emissions and nothing else, none an artefact (no receiver model applied)", () => {
-    const found = detection.emissions.map((e) => `${Math.round(e.offsetHz / 1000)}:${e.powerDbfs.toFixed(1)}:${e.bandwidthHz.toFixed(0)}:${e.startS.toFixed(3)}-${e.endS.toFixed(3)}`);
-    expect(detection.emissions.length, `found at ${found.join(", ")} kHz`).toBe(6);
+    const found = detection.emissions.map((e) => `${Math.round(e.offsetHz / 1000)} kHz ${e.powerDbfs.toFixed(1)} dBFS`);
+    expect(detection.emissions.length, `found: ${found.join(", ")}`).toBe(6);
     expect(detection.emissions.every((e) => e.artefact === null)).toBe(true);
   });
 
@@ -112,6 +113,25 @@ describe("detectEmissions(pass 1) on a 1 MS/s band of six emissions", async () =
       expect(Math.abs(e.powerDbfs - t.powerDbfs)).toBeLessThan(1);
     });
   }
+
+  it("drops what is on for less than minDurationS in all: 0.35 s leaves out the bursty 8PSK (10 × 30 ms on), keeps the 0.6 s 16QAM", () => {
+    const kept = detectEmissions(pass1, { minDurationS: 0.35 }).emissions;
+    expect(kept.length).toBe(5);
+    expect(kept.some((e) => Math.abs(e.offsetHz + 120_000) < 10_000)).toBe(false);
+    expect(kept.some((e) => Math.abs(e.offsetHz + 300_000) < 10_000)).toBe(true);
+  });
+
+  it("drops what is narrower than minBandwidthHz: 35 kHz leaves out the 30 kHz FM and the 31.7 kHz 8PSK (bandwidths from theory above)", () => {
+    const kept = detectEmissions(pass1, { minBandwidthHz: 35_000 }).emissions;
+    expect(kept.map((e) => Math.round(e.offsetHz / 10_000) * 10)).toEqual(
+      truths.filter((t) => t.bandwidthHz > 35_000).map((t) => Math.round(t.offsetHz / 10_000) * 10).sort((a, b) => a - b),
+    );
+  });
+
+  it("refuses a pfa outside (0, 1) with a one-line ParameterError", () => {
+    expect(() => detectEmissions(pass1, { pfa: 0 })).toThrow(new ParameterError("pfa", "0 is not a probability between 0 and 1"));
+    expect(() => detectEmissions(pass1, { pfa: 1e-6, growPfa: 1e-7 })).toThrow(/^growPfa: 1e-7 must lie in \[pfa 0.000001, 1\)$/);
+  });
 
   it("states the weak emission's SNR in its own band as about 10 dB (built so; ±1.5 dB for the floor and the skirts)", () => {
     const e = nearest(detection.emissions, -300_000);

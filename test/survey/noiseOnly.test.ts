@@ -1,9 +1,10 @@
 // detectEmissions on noise alone, through the real pass 1: no emission at the default pfa, with a
-// flat floor and with a sloped one. The expected count comes from the threshold's formula.
+// flat floor and with a sloped one (the expected count comes from the threshold's formula), and a
+// weak emission on the slope found as it is.
 import { describe, expect, it } from "vitest";
-import { SeededRandom, complexNoise } from "../../src/scenario/index.js";
+import { SeededRandom, complexNoise, frequencyShift, randomSymbols, rrcPsk } from "../../src/scenario/index.js";
 import { DETECT_EMISSIONS_DEFAULTS, detectEmissions } from "../../src/survey/index.js";
-import { pass1Of } from "./surveyCaptures.js";
+import { addInto, pass1Of } from "./surveyCaptures.js";
 
 const fs = 1e6;
 const n = 1 << 16; // 256 KiB as ci16; 256-point frames in 16 rows of K = 16: 4096 cells a capture
@@ -39,6 +40,25 @@ describe("detectEmissions(pass 1) of noise only, 20 seeds", () => {
       expect(found).toBe(0);
     });
   }
+
+  it("finds a 10 dB SNR QPSK on the slope, and only it: centre within max(1 bin, 2 %), 99 % bandwidth within 10 % (issue 9; 1.1667·Rs, REFERENCES.md §3)", async () => {
+    const m = 1 << 18;
+    const x = new Float64Array(2 * m);
+    complexNoise(new SeededRandom(7401), x, noiseVariance);
+    const y = tilted(x, 0.3);
+    // Local floor at +100 kHz: (σ²/fs)·(1 + a² + 2a·sin ω), ω = 2π·0.1; the QPSK's power is 10× the floor over its 99 % band.
+    const obwHz = 1.1667 * 50_000;
+    const localPerHz = (noiseVariance / fs) * (1.09 + 0.6 * Math.sin(2 * Math.PI * 0.1));
+    const symbols = randomSymbols(new SeededRandom(7402), "qpsk", Math.ceil((m / fs) * 50_000) + 16);
+    const amplitude = Math.sqrt(10 * localPerHz * obwHz);
+    addInto(y, frequencyShift(rrcPsk(symbols, 0, m, { symbolRateBd: 50_000, sampleRateHz: fs, rollOff: 0.35, amplitude }), fs, 100_000));
+    const pass1 = await pass1Of("tilt_qpsk", y, fs, 1024, 32);
+    const d = detectEmissions(pass1);
+    expect(d.emissions.length, d.emissions.map((e) => `${Math.round(e.offsetHz)} Hz`).join(", ")).toBe(1);
+    const e = d.emissions[0];
+    expect(Math.abs((e?.offsetHz ?? 0) - 100_000)).toBeLessThanOrEqual(Math.max(pass1.spectrogram.binWidthHz, 0.02 * obwHz));
+    expect(Math.abs((e?.bandwidthHz ?? 0) - obwHz)).toBeLessThanOrEqual(0.1 * obwHz);
+  });
 
   it("follows the sloped floor 1 + a² + 2a·sin ω within 3 standard errors plus the stated bias (theory)", async () => {
     const x = new Float64Array(2 * n);
