@@ -20,6 +20,8 @@ export interface BurstTiming {
   readonly burstCount: number;
   readonly dutyCyclePercent: number;
   readonly onPower: number;
+  /** Rows averaged into onPower. */
+  readonly onRowCount: number;
   readonly peakPower: number;
 }
 
@@ -34,7 +36,7 @@ export function burstTiming(
   const rows = s.rowCount;
   const power = rowPowers(s, floorPerHz, binFirst, binLast);
   const on = (r: number): boolean => r >= 0 && r < rows && onRows[r] === 1;
-  const onPower = meanOnPower(power, rows, on);
+  const { onPower, onRowCount } = meanOnPower(power, rows, on);
   const share = (r: number): number => (r < 0 || r >= rows || !(onPower > 0) ? 0 : Math.min(1, Math.max(0, (power[r] as number) / onPower)));
   const duration = (r: number): number => (r < 0 || r >= rows ? 0 : (s.rowStopS[r] as number) - (s.rowStartS[r] as number));
   let startS = Infinity;
@@ -56,7 +58,7 @@ export function burstTiming(
     bursts++;
   }
   const spanS = endS - startS;
-  return { startS, endS, burstCount: bursts, dutyCyclePercent: spanS > 0 ? Math.min(100, (100 * onS) / spanS) : 100, onPower, peakPower };
+  return { startS, endS, burstCount: bursts, dutyCyclePercent: spanS > 0 ? Math.min(100, (100 * onS) / spanS) : 100, onPower, onRowCount, peakPower };
 }
 
 /** P_r for every row (0 for a row of no frame). */
@@ -73,7 +75,7 @@ function rowPowers(s: Spectrogram, floorPerHz: Float64Array, binFirst: number, b
 }
 
 /** P_on: the mean power of whole rows inside bursts, else of all on rows. */
-function meanOnPower(power: Float64Array, rows: number, on: (r: number) => boolean): number {
+function meanOnPower(power: Float64Array, rows: number, on: (r: number) => boolean): { onPower: number; onRowCount: number } {
   let inner = 0;
   let innerCount = 0;
   let all = 0;
@@ -87,5 +89,6 @@ function meanOnPower(power: Float64Array, rows: number, on: (r: number) => boole
       innerCount++;
     }
   }
-  return innerCount > 0 ? inner / innerCount : allCount > 0 ? all / allCount : 0;
+  if (innerCount > 0) return { onPower: inner / innerCount, onRowCount: innerCount };
+  return { onPower: allCount > 0 ? all / allCount : 0, onRowCount: allCount };
 }

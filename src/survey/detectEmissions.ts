@@ -15,7 +15,7 @@
  * Memory: the spectrogram (read in place) plus an Int32 label and an Int32 queue entry a cell and
  * R bytes an emission: O(R × N), whatever the capture's length.
  */
-import { noiseFloor, powerToDb, type HealthFigures, type Spectrogram, type WelchPsd } from "../dsp/index.js";
+import { DB_CEILING, noiseFloor, powerToDb, type HealthFigures, type Spectrogram, type WelchPsd } from "../dsp/index.js";
 import { ParameterError } from "../errors.js";
 import { detectDcSpike, mainLobeHalfWidthBins } from "../measure/index.js";
 import { burstTiming } from "./burstTiming.js";
@@ -24,7 +24,7 @@ import { emissionBandwidth, floorAt } from "./emissionBandwidth.js";
 import { hysteresisRegions } from "./hysteresisRegions.js";
 import { markArtefacts } from "./markArtefacts.js";
 import { mergeRegions, unionGroups, type RegionGroup } from "./mergeRegions.js";
-import { noiseFloorPerBin, type NoiseFloorPerBin, type NoiseFloorPerBinOptions } from "./noiseFloorPerBin.js";
+import { binPowerCorrelation, noiseFloorPerBin, type NoiseFloorPerBin, type NoiseFloorPerBinOptions } from "./noiseFloorPerBin.js";
 import { rowThresholdFactor } from "./rowThreshold.js";
 import { sidebandTriple } from "./sidebandTriple.js";
 
@@ -80,7 +80,7 @@ export function detectEmissions(input: SurveyInput, options: DetectEmissionsOpti
   const { seed, grow, thresholds } = rowFactors(s, o.pfa, o.growPfa, floor);
   const map = hysteresisRegions(s, floor.floorPerHz, seed, grow);
   const groups = mergeRegions(map, s.rowCount, s.fftLength, Math.round(o.mergeGapHz / s.binWidthHz));
-  const figures = joinSidebands(input, floor.floorPerHz, groups)
+  const figures = joinSidebands(input, floor, groups)
     .filter((e) => e.bandwidthHz >= o.minBandwidthHz && onDurationS(e) >= o.minDurationS)
     .sort((a, b) => a.offsetHz - b.offsetHz)
     .map((e, i) => ({ ...e, id: i + 1 }));
@@ -97,15 +97,15 @@ export function detectEmissions(input: SurveyInput, options: DetectEmissionsOpti
 }
 
 /** The figures of every group, sideband triples (sidebandTriple.ts) joined until none is left. */
-function joinSidebands(input: SurveyInput, floorPerHz: Float64Array, groups: RegionGroup[]): DetectedEmission[] {
+function joinSidebands(input: SurveyInput, floor: NoiseFloorPerBin, groups: RegionGroup[]): DetectedEmission[] {
   const s = input.spectrogram;
-  let figures = groups.map((g) => emissionFigures(input, floorPerHz, g));
+  let figures = groups.map((g) => emissionFigures(input, floor, g));
   for (;;) {
     const triple = sidebandTriple(figures, s.binWidthHz, typicalRowS(s));
     if (triple === null) return figures;
     const joined = unionGroups(triple.map((i) => groups[i] as RegionGroup));
     groups = [joined, ...groups.filter((_, i) => !triple.includes(i))];
-    figures = [emissionFigures(input, floorPerHz, joined), ...figures.filter((_, i) => !triple.includes(i))];
+    figures = [emissionFigures(input, floor, joined), ...figures.filter((_, i) => !triple.includes(i))];
   }
 }
 
@@ -155,8 +155,9 @@ function onDurationS(e: DetectedEmission): number {
 }
 
 /** The figures of one group (id 0 until numbered). */
-function emissionFigures(input: SurveyInput, floorPerHz: Float64Array, g: RegionGroup): DetectedEmission {
+function emissionFigures(input: SurveyInput, floor: NoiseFloorPerBin, g: RegionGroup): DetectedEmission {
   const s = input.spectrogram;
+  const floorPerHz = floor.floorPerHz;
   const df = s.binWidthHz;
   const detectedLowerHz = (g.binFirst - s.fftLength / 2 - 0.5) * df;
   const detectedUpperHz = (g.binLast - s.fftLength / 2 + 0.5) * df;
@@ -172,6 +173,8 @@ function emissionFigures(input: SurveyInput, floorPerHz: Float64Array, g: Region
     floorCount++;
   }
   const noiseInBand = floorCount > 0 ? (floorSum / floorCount) * (upper - lower) : 0;
+  const u = powerUncertaintyDb(s, floor, g, timing.onPower, timing.onRowCount);
+  const floorDb = 10 * Math.log10(1 + Math.abs(floor.error.biasRel) + 2 * floor.error.sdRel);
   return {
     id: 0,
     offsetHz: (lower + upper) / 2,
@@ -187,10 +190,35 @@ function emissionFigures(input: SurveyInput, floorPerHz: Float64Array, g: Region
     timeUncertaintyS: typicalRowS(s),
     burstCount: timing.burstCount,
     dutyCyclePercent: timing.dutyCyclePercent,
+    dutyCycleUncertaintyPercent: Math.min(100, (100 * timing.burstCount * typicalRowS(s)) / Math.max(timing.endS - timing.startS, typicalRowS(s))),
     powerDbfs: powerToDb(timing.onPower),
+    powerUncertaintyDb: u,
     peakDbfs: powerToDb(timing.peakPower),
     snrDb: noiseInBand > 0 ? powerToDb(timing.onPower / noiseInBand) : powerToDb(0),
+    snrUncertaintyDb: u + floorDb,
     artefact: null,
     mirrorOfId: null,
   };
+}
+
+/**
+ * Expanded (k = 2) uncertainty of the power while on, dB: twice the standard deviation of the mean
+ * of n row powers of noise, Δf·√(c·Σ_b S_b²/K)/√n (c = 1 + 2·Σ_{d≥1} ρ_d for the correlation of
+ * neighbouring bins, noiseFloorPerBin.ts; Hann 1.94), plus the floor's error on the noise under the
+ * detected bins, (|b| + 2σ)·Σ_b S_b·Δf (a one-sided bias, added, not in quadrature). Skirts below
+ * the grow threshold, left out of the detected bins, are not in it.
+ */
+function powerUncertaintyDb(s: Spectrogram, floor: NoiseFloorPerBin, g: RegionGroup, onPower: number, onRows: number): number {
+  const rho = binPowerCorrelation(s.window, s.fftLength, 8);
+  let c = 1;
+  for (let d = 1; d < rho.length; d++) c += 2 * (rho[d] as number);
+  let sumSq = 0;
+  let sum = 0;
+  for (let b = g.binFirst; b <= g.binLast; b++) {
+    sumSq += (floor.floorPerHz[b] as number) ** 2;
+    sum += floor.floorPerHz[b] as number;
+  }
+  const statistical = (2 * s.binWidthHz * Math.sqrt((c * sumSq) / floor.framesPerRow)) / Math.sqrt(Math.max(1, onRows));
+  const floorPart = (Math.abs(floor.error.biasRel) + 2 * floor.error.sdRel) * sum * s.binWidthHz;
+  return onPower > 0 ? 10 * Math.log10(1 + (statistical + floorPart) / onPower) : DB_CEILING;
 }

@@ -22,12 +22,18 @@ export interface DetectedEmission {
   readonly burstCount: number;
   /** Summed burst lengths over endS − startS, %. */
   readonly dutyCyclePercent: number;
+  /** Bound on the duty cycle's error: one row per burst over the span, %. */
+  readonly dutyCycleUncertaintyPercent: number;
   /** Mean channel power while on, over the detected bins, floor removed. */
   readonly powerDbfs: number;
+  /** Expanded (k = 2) uncertainty of powerDbfs from the rows' noise and the floor's error (detectEmissions.ts). */
+  readonly powerUncertaintyDb: number;
   /** Highest channel power of one spectrogram row. */
   readonly peakDbfs: number;
   /** Power while on over the floor's power in the 99 % band, dB. */
   readonly snrDb: number;
+  /** powerUncertaintyDb plus the floor's error in the denominator, dB. */
+  readonly snrUncertaintyDb: number;
   readonly artefact: null | "dc" | "image";
   /** For an image: the id of the emission it mirrors; else null. */
   readonly mirrorOfId: number | null;

@@ -27,7 +27,7 @@
  *   bias bound is conservative.
  * Memory: the R × N rows are read in place; work arrays of N and R values.
  */
-import { standardNormalQuantile, windowCoefficients, type Spectrogram } from "../dsp/index.js";
+import { standardNormalQuantile, windowCoefficients, type Spectrogram, type WindowName } from "../dsp/index.js";
 import { rowMeanDensity, rowMeanQuantile, type FloorError } from "./rowThreshold.js";
 
 /** Options of noiseFloorPerBin, defaults in NOISE_FLOOR_PER_BIN_DEFAULTS. */
@@ -123,7 +123,7 @@ function opening(v: Float64Array, g: number): Float64Array {
 function floorError(s: Spectrogram, rowCount: number, frames: number, mK: number, h: number, g: number): FloorError {
   const sdT = 1 / (2 * rowMeanDensity(frames, mK) * mK * Math.sqrt(rowCount));
   const window = h + 1; // the clamped window at a band edge, the worst case
-  const rho = binPowerCorrelation(s, window);
+  const rho = binPowerCorrelation(s.window, s.fftLength, window);
   let sum = 0;
   for (let d = 1; d < window; d++) sum += (1 - d / window) * (rho[d] as number);
   const nEff = window / (1 + 2 * sum);
@@ -134,8 +134,8 @@ function floorError(s: Spectrogram, rowCount: number, frames: number, mK: number
 }
 
 /** ρ_d for d = 0 … count − 1: the correlation of periodogram powers d bins apart (module comment). */
-function binPowerCorrelation(s: Spectrogram, count: number): Float64Array {
-  const w = windowCoefficients(s.window, s.fftLength);
+export function binPowerCorrelation(window: WindowName, fftLength: number, count: number): Float64Array {
+  const w = windowCoefficients(window, fftLength);
   const n = w.length;
   let energy = 0;
   for (let i = 0; i < n; i++) energy += (w[i] as number) ** 2;

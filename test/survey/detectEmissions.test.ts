@@ -111,6 +111,10 @@ describe("detectEmissions(pass 1) on a 1 MS/s band of six emissions", async () =
       // Mean power while on within 1 dB of the built power (theory: the modulators' mean powers);
       // the detected bins hold all but the faint skirts.
       expect(Math.abs(e.powerDbfs - t.powerDbfs)).toBeLessThan(1);
+      // Every figure carries a stated uncertainty, never zero (project rule); the duty cycle's bound covers the truth.
+      expect(e.powerUncertaintyDb).toBeGreaterThan(0);
+      expect(e.snrUncertaintyDb).toBeGreaterThan(e.powerUncertaintyDb);
+      expect(Math.abs(e.dutyCyclePercent - t.dutyCyclePercent)).toBeLessThanOrEqual(e.dutyCycleUncertaintyPercent);
     });
   }
 
