@@ -36,7 +36,7 @@ import {
   type Measurement,
 } from "../measure/index.js";
 import type { Pass1Result } from "./pass1.js";
-import { runPass2 } from "./pass2.js";
+import { runPass2, type Pass2Result } from "./pass2.js";
 import { correctedOffsetHz } from "./clockCorrection.js";
 import type { AmFiguresOut, DigitalFiguresOut, EmissionFigures, FmFiguresOut, FskFiguresOut, OokFiguresOut } from "./emissionFigures.js";
 import { digitalEmission } from "./digitalEmission.js";
@@ -65,6 +65,12 @@ export interface MeasureEmissionOptions {
   readonly rollOff?: number | undefined;
   /** Most decimated channel samples kept (default 2^20, PASS2_DEFAULTS). */
   readonly maxChannelSamples?: number | undefined;
+  /**
+   * The channel already extracted (a survey extracts every emission's channel in one read):
+   * measured instead of a pass 2 of its own; its offset and width are the channel's, and
+   * `channel` should name the same (it bounds where the emission is located in the pass-1 PSD).
+   */
+  readonly extractedChannel?: Pass2Result | undefined;
   readonly onProgress?: ((doneSamples: number, totalSamples: number) => void) | undefined;
 }
 
@@ -99,14 +105,15 @@ export async function measureEmission(
   else if (region.dcSpikeInside) warnings.push(`the line at 0 Hz (${dc.levelDbfs.toFixed(1)} dBFS) lies inside the emission and was measured as part of it: it may be the receiver's DC spike rather than a carrier`);
 
   // The channel to extract: the user's, or the region found with room for its skirts.
-  const givenByUser = options.channel !== undefined;
+  const givenByUser = options.channel !== undefined && options.extractedChannel === undefined;
   const offsetHz = options.channel?.offsetHz ?? region.centerOffsetHz;
   // A found region narrower than an audio channel may be only the carrier of an AM emission
   // whose sidebands sit under the pass-1 threshold: the channel is at least 2.5 × the audio
   // bandwidth (two sidebands of --audio-bw with room for the filter's skirts), so they are kept.
   const minAutoHz = Math.max(16 * pass1.psd.binWidthHz, 2.5 * audioBandwidthHz);
   const widthHz = Math.min(options.channel?.widthHz ?? Math.max(region.widthHz * 1.6, minAutoHz), 0.9 * fs);
-  const pass2 = await runPass2(source, span, { offsetHz, bandwidthHz: widthHz, maxSamples: options.maxChannelSamples, onProgress: options.onProgress });
+  const pass2 = options.extractedChannel
+    ?? await runPass2(source, span, { offsetHz, bandwidthHz: widthHz, maxSamples: options.maxChannelSamples, onProgress: options.onProgress });
   warnings.push(...pass2.warnings);
   const fsc = pass2.sampleRateHz;
   // The receiver's DC line, set aside above, sits at −offsetHz in the channel: remove it there too.

@@ -8,4 +8,5 @@ export {
   rowThresholdFactor, falseAlarmProbability, rowMeanTail, rowMeanQuantile, rowMeanDensity, logGammaTail,
 } from "./rowThreshold.js";
 export type { FloorError } from "./rowThreshold.js";
+export { surveyCapture, SURVEY_DEFAULTS, type SurveyOptions, type SurveyResult, type SurveyedEmission } from "./surveyCapture.js";
 export { annotatedSigmfMeta, surveySigmfMetaPath, SIGMF_VERSION, SIGMF_LABEL_MAX, type AnnotatedSigmfInput, type SurveyAnnotation } from "./sigmfAnnotations.js";

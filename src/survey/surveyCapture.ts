@@ -1,0 +1,125 @@
+/**
+ * The survey of one capture: every emission found blind in the pass-1 figures
+ * (detectEmissions.ts), every emission's channel extracted in one more read of the file (one
+ * forward transform a block shared by all channels, MultiChannelizer), and each measured by the
+ * `measure` analysis on its own channel over the time it is present (a bursty link inside its
+ * bursts, as measureEmission does for any keyed envelope).
+ *
+ * Memory: the pass-1 figures, the detection's labels (8 bytes a spectrogram cell), the
+ * channelizer's block transform (at most 8 MiB) and each channel's record, kept up to
+ * `maxChannelSamples` (2^20 complex float32 = 8 MiB) over the emission's time span: at most
+ * 8 MiB an emission plus what one measurement allocates (docs/architecture.md).
+ *
+ * The analyses run one after another in this thread (the per-emission analyses in worker
+ * threads, issue 9, are not built yet).
+ */
+import type { CaptureSource, SampleSpan } from "../capture/index.js";
+import type { Pass1Result } from "../analysis/index.js";
+import type { Pass2Result } from "../analysis/pass2.js";
+import { measureEmission, MEASURE_DEFAULTS } from "../analysis/measureEmission.js";
+import type { EmissionFigures } from "../analysis/emissionFigures.js";
+import { MultiChannelizer } from "../dsp/index.js";
+import { detectEmissions, type Detection, type DetectEmissionsOptions } from "./detectEmissions.js";
+import type { DetectedEmission } from "./detectedEmission.js";
+
+/** Options of surveyCapture. */
+export interface SurveyOptions extends DetectEmissionsOptions {
+  /** Audio bandwidth of the analogue figures, Hz (default 3000, as measure). */
+  readonly audioBandwidthHz?: number | undefined;
+  /** Most decimated samples kept per channel (default 2^20). */
+  readonly maxChannelSamples?: number | undefined;
+  /** Input samples of the extraction read done, of the total. */
+  readonly onProgress?: ((doneSamples: number, totalSamples: number) => void) | undefined;
+}
+
+/** One emission (not an artefact) and its measurement. */
+export interface SurveyedEmission {
+  readonly emission: DetectedEmission;
+  readonly channel: { readonly offsetHz: number; readonly widthHz: number };
+  readonly figures: EmissionFigures;
+}
+
+export interface SurveyResult {
+  readonly detection: Detection;
+  readonly measured: readonly SurveyedEmission[];
+  readonly warnings: readonly string[];
+}
+
+export const SURVEY_DEFAULTS = { maxChannelSamples: 1 << 20, blockSamples: 1 << 16 } as const;
+
+/** The survey of `span` (module comment). */
+export async function surveyCapture(source: CaptureSource, span: SampleSpan, pass1: Pass1Result, options: SurveyOptions = {}): Promise<SurveyResult> {
+  const detection = detectEmissions(pass1, options);
+  const fs = source.meta.sampleRateHz;
+  const audioHz = options.audioBandwidthHz ?? MEASURE_DEFAULTS.audioBandwidthHz;
+  const emissions = detection.emissions.filter((e) => e.artefact === null);
+  const channels = emissions.map((e) => channelOf(e, fs, pass1.psd.binWidthHz, audioHz));
+  const records = await extractChannels(source, span, emissions, channels, options);
+  const measured: SurveyedEmission[] = [];
+  for (let i = 0; i < emissions.length; i++) {
+    const channel = channels[i] as { offsetHz: number; widthHz: number };
+    const figures = await measureEmission(source, span, pass1, {
+      channel, extractedChannel: records[i], audioBandwidthHz: audioHz,
+    });
+    measured.push({ emission: emissions[i] as DetectedEmission, channel, figures });
+  }
+  return { detection, measured, warnings: detection.warnings };
+}
+
+/**
+ * The channel an emission is measured in: its 99 % band × 1.6 for the skirts, at least 2.5 × the
+ * audio bandwidth and 16 pass-1 bins (as measure's own channel), inside ±0.45·fs.
+ */
+function channelOf(e: DetectedEmission, fs: number, binHz: number, audioHz: number): { offsetHz: number; widthHz: number } {
+  const wanted = Math.max(1.6 * (e.bandwidthHz ?? 0), 2.5 * audioHz, 16 * binHz);
+  const room = 2 * Math.min(0.45 * fs - e.offsetHz, e.offsetHz + 0.45 * fs);
+  return { offsetHz: e.offsetHz, widthHz: Math.max(16 * binHz, Math.min(wanted, room, 0.9 * fs)) };
+}
+
+/** Every channel's record over its emission's time span, from one read through the channelizer. */
+async function extractChannels(
+  source: CaptureSource, span: SampleSpan, emissions: readonly DetectedEmission[],
+  channels: readonly { offsetHz: number; widthHz: number }[], options: SurveyOptions,
+): Promise<Pass2Result[]> {
+  if (channels.length === 0) return [];
+  const fs = source.meta.sampleRateHz;
+  const bank = new MultiChannelizer({ sampleRateHz: fs, channels: channels.map((c) => ({ offsetHz: c.offsetHz, bandwidthHz: c.widthHz })) });
+  const cap = options.maxChannelSamples ?? SURVEY_DEFAULTS.maxChannelSamples;
+  const kept = bank.channels.map((info, i) => {
+    const e = emissions[i] as DetectedEmission;
+    // Output m is input time m·D/fs − delay: keep [startS, endS], the filter's settling left out.
+    const first = Math.max(Math.ceil(2 * info.delayS * info.outputRateHz), Math.floor((e.startS + info.delayS) * info.outputRateHz));
+    const last = Math.ceil((e.endS + info.delayS) * info.outputRateHz);
+    const count = Math.max(0, Math.min(cap, last - first));
+    return { first, out: new Float32Array(2 * count), filled: 0, produced: 0 };
+  });
+  let done = 0;
+  const consume = (outputs: readonly Float32Array[]): void => {
+    outputs.forEach((y, i) => {
+      const k = kept[i] as (typeof kept)[number];
+      const n = y.length >> 1;
+      const from = Math.max(0, k.first - k.produced);
+      const room = (k.out.length >> 1) - k.filled;
+      const take = Math.max(0, Math.min(n - from, room));
+      if (take > 0) k.out.set(y.subarray(2 * from, 2 * (from + take)), 2 * k.filled);
+      k.filled += take;
+      k.produced += n;
+    });
+  };
+  for await (const block of source.blocks(span, SURVEY_DEFAULTS.blockSamples, { reuse: true })) {
+    consume(bank.push(block));
+    done += block.length >> 1;
+    options.onProgress?.(done, span.sampleCount);
+  }
+  consume(bank.flush());
+  return bank.channels.map((info, i) => {
+    const k = kept[i] as (typeof kept)[number];
+    const c = channels[i] as { offsetHz: number; widthHz: number };
+    const warnings = k.filled < (k.out.length >> 1) ? [`the channel's record ended ${(k.out.length / 2 - k.filled)} samples short of the emission's time span`] : [];
+    return {
+      iq: k.out.subarray(0, 2 * k.filled), sampleRateHz: info.outputRateHz, decimation: info.decimation,
+      offsetHz: c.offsetHz, bandwidthHz: c.widthHz, startS: k.first / info.outputRateHz - info.delayS,
+      inputSamples: span.sampleCount, warnings,
+    };
+  });
+}
