@@ -18,6 +18,8 @@ import { demoCommand } from "./commands/demo.js";
 import { inspectText } from "./report/inspectText.js";
 import { measureCommand } from "./commands/measure.js";
 import { measureText } from "./report/measureText.js";
+import { surveyCommand } from "./commands/survey.js";
+import { surveyMarkdown } from "./report/index.js";
 import { MEASURE_MODES, type MeasureMode } from "./analysis/measureEmission.js";
 import { parseOutPath, writeStdout } from "./cli/stdout.js";
 import { removeTemporaries } from "./report/index.js";
@@ -154,6 +156,53 @@ function program(): Command {
         progress.done();
         warn(result.report.warnings);
         await writeStdout(flags.json === true ? `${JSON.stringify(result.report, null, 2)}\n` : measureText(result.report, result.files));
+      },
+    );
+
+  addCaptureOptions(
+    root
+      .command("survey")
+      .argument("<capture>", "capture file")
+      .description(
+        "find every emission of a wideband capture blind, measure each on its own channel, and mark the " +
+          "receiver's DC spike and IQ images as artefacts; writes survey.json, survey.md, survey.png and one " +
+          "folder per emission with --out",
+      ),
+  )
+    .option("--pfa <p>", "false-alarm probability per spectrogram cell of the detection threshold", "1e-6")
+    .option("--min-bandwidth <Hz>", "drop emissions narrower than this (99 % bandwidth)", "0")
+    .option("--min-duration <s>", "drop emissions on for less than this in all", "0")
+    .option("--audio-bw <Hz>", "audio low-pass before FM peak deviation and AM depth", "3k")
+    .option("--sigmf-annotations", "also write <capture>.survey.sigmf-meta beside the capture: its metadata with one annotation per emission (never the capture's own .sigmf-meta)")
+    .option("-o, --out <dir>", "write survey.json, survey.md, survey.png and a folder per emission into this folder, published whole")
+    .option("--json", "print the survey as one JSON document on stdout (schema iqaudit/survey/1)")
+    .addHelpText(
+      "after",
+      "\nThe detection threshold follows from --pfa and the chi-square law of averaged periodograms (docs/methods.md).\n" +
+        "Results are indicative: the licence and local regulation decide what applies; see iqaudit --help for cautions.",
+    )
+    .action(
+      async (
+        path: string,
+        flags: RawCaptureFlags & { pfa: string; minBandwidth: string; minDuration: string; audioBw: string; sigmfAnnotations?: boolean; out?: string; json?: boolean },
+      ) => {
+        const progress = createProgress(`survey ${path}`, !quiet());
+        const pfa = parseQuantity("--pfa", flags.pfa, { unit: "none", min: 0 });
+        if (!(pfa > 0 && pfa < 1)) throw new UsageError("--pfa", `${flags.pfa} must lie between 0 and 1`);
+        const result = await surveyCommand(path, {
+          capture: captureArgs(flags),
+          pfa,
+          minBandwidthHz: parseQuantity("--min-bandwidth", flags.minBandwidth, { unit: "Hz", min: 0, minInclusive: true }),
+          minDurationS: parseQuantity("--min-duration", flags.minDuration, { unit: "s", min: 0, minInclusive: true }),
+          audioBandwidthHz: parseQuantity("--audio-bw", flags.audioBw, { unit: "Hz", min: 0 }),
+          sigmfAnnotations: flags.sigmfAnnotations === true,
+          outDir: flags.out === undefined ? undefined : parseOutPath("--out", flags.out),
+          pass1: { onProgress: progress.onProgress },
+        });
+        progress.done();
+        warn(result.report.warnings);
+        const written = result.files.length === 0 ? "" : `\nWritten: ${result.files.length} files under ${flags.out ?? "."}${result.files.some((f) => f.endsWith(".sigmf-meta")) ? ` and ${result.files.find((f) => f.endsWith(".sigmf-meta"))}` : ""}\n`;
+        await writeStdout(flags.json === true ? `${JSON.stringify(result.report, null, 2)}\n` : `${surveyMarkdown(result.report)}${written}`);
       },
     );
 

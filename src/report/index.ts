@@ -6,4 +6,4 @@ export { removeTemporaries } from "./temporaries.js";
 export { systemReason, isSystemError } from "./outputFailure.js";
 export { REPORT_FOLDER } from "./reportFolder.js";
 export { surveyMarkdown } from "./surveyMarkdown.js";
-export type { SurveyEmission, SurveyReport } from "./surveyReport.js";
+export { buildSurveyReport, type SurveyDetected, type SurveyEmission, type SurveyReport } from "./surveyReport.js";
