@@ -15,6 +15,7 @@ import type { CaptureArgs } from "./analyseCapture.js";
 import type { Pass1Options } from "../analysis/index.js";
 import { inspectText } from "../report/inspectText.js";
 import { publishFolder, writeFileAtomic, type FolderSpec, type FolderWriter } from "../report/index.js";
+import { surveyCommand } from "./survey.js";
 import type { InspectReport } from "../report/inspectReport.js";
 import { formatHz } from "../report/format.js";
 
@@ -61,6 +62,7 @@ export async function demoCommand(options: DemoOptions): Promise<DemoSummary> {
       "",
     );
   }
+  lines.push(...(await surveyDemo(scenario, options.outDir, written, warnings)));
   lines.push("Results are indicative; see iqaudit --help for the cautions of transmitter testing.", "");
   const text = lines.join("\n");
   await writeFileAtomic(join(options.outDir, "SUMMARY.txt"), text);
@@ -146,4 +148,26 @@ function measuredLine(m: MeasureReport): string {
     m.ook.dutyCyclePercent === null ? "" : `duty ${m.ook.dutyCyclePercent.toFixed(1)} %`,
   ];
   return parts.filter((p) => p !== "").join(", ");
+}
+
+/**
+ * The blind survey of the site's wideband capture (`iqaudit survey`), into `<outDir>/site-survey/`:
+ * the table of what it found, beside the transmitters the scenario says are there.
+ */
+async function surveyDemo(scenario: readonly ScenarioFile[], outDir: string, written: string[], warnings: string[]): Promise<string[]> {
+  const site = scenario.find((f) => f.captureId === "survey");
+  if (site === undefined) return [];
+  const folder = join(outDir, "site-survey");
+  const { report, files } = await surveyCommand(site.path, { capture: {}, outDir: folder });
+  written.push(...files);
+  warnings.push(...report.warnings.map((w) => `${basename(site.path)} survey: ${w}`));
+  const found = report.emissions.filter((e) => e.artefact === null);
+  const set = report.emissions.filter((e) => e.artefact !== null);
+  return [
+    `${basename(site.path)}: blind survey, ${found.length} emissions found (the scenario has ${SCENARIO_CAPTURES.find((c) => c.id === "survey")?.emissions.length ?? "?"}), ${set.length} receiver artefacts set aside`,
+    ...found.map((e) => `  ${e.id}. ${e.frequencyHz === null ? formatHz(e.offsetHz) : formatHz(e.frequencyHz)}: ${e.class ?? "unknown"}${e.order === null ? "" : ` ${e.order}`}, ${e.designator ?? "no designator"}${e.report?.digital.symbolRateBd == null ? "" : `, ${e.report.digital.symbolRateBd.toFixed(1)} Bd`}, duty ${e.dutyCyclePercent?.toFixed(0) ?? "?"} %`),
+    ...set.map((e) => `  ${e.id}. ${e.frequencyHz === null ? formatHz(e.offsetHz) : formatHz(e.frequencyHz)}: ${e.artefact === "dc" ? "the receiver's DC spike" : `IQ image of ${e.imageOf ?? "?"}`}`),
+    `  -> ${join(folder, "survey.md")}, ${join(folder, "survey.png")}`,
+    "",
+  ];
 }
