@@ -27,8 +27,10 @@ describe("demoCommand({ outDir })", () => {
   it("publishes each capture folder whole, with its measure-* report folders whole inside it", async () => {
     const out = mkdtempSync(join(tmpdir(), "iqaudit-demo-"));
     await demoCommand({ outDir: out });
-    const folders = readdirSync(out).filter((n) => n !== "captures" && n !== "SUMMARY.txt");
+    const folders = readdirSync(out).filter((n) => n !== "captures" && n !== "SUMMARY.txt" && n !== "site-survey");
     expect(folders.length).toBe(4); // the four captures of the sample scenario (samples/README.md)
+    // The blind survey of the site capture, published whole with survey.json as its manifest.
+    expectWhole(join(out, "site-survey"), "survey.json");
     for (const f of folders) {
       expectWhole(join(out, f), "inspect.json");
       for (const m of readdirSync(join(out, f)).filter((n) => n.startsWith("measure-"))) expectWhole(join(out, f, m), "report.json");
