@@ -92,3 +92,81 @@ export async function benchQpskCapture(mebibytes: number): Promise<string> {
   await rename(temp, path);
   return path;
 }
+
+/** One emission of the survey bench capture: a phase increment generator at an offset. */
+interface BenchEmission {
+  readonly offsetHz: number;
+  readonly amplitude: number;
+  /** Instantaneous frequency deviation, Hz, and amplitude factor at time t (s). */
+  at(t: number): { readonly deviationHz: number; readonly gain: number };
+}
+
+/** The survey bench's ten emissions (invented): FM, AM, CW, 2-FSK continuous and in 10 % bursts, OOK, a wide FM. */
+function surveyBenchEmissions(): BenchEmission[] {
+  const tone = (hz: number, t: number): number => Math.sin(2 * Math.PI * hz * t);
+  const bit = (rate: number, t: number, seed: number): number => {
+    const k = Math.floor(t * rate);
+    return ((Math.imul(k ^ seed, 2654435761) >>> 16) & 1) === 1 ? 1 : -1;
+  };
+  return [
+    { offsetHz: -1_000_000, amplitude: 0.05, at: (t) => ({ deviationHz: 3000 * tone(1000, t), gain: 1 }) },
+    { offsetHz: -800_000, amplitude: 0.03, at: (t) => ({ deviationHz: 0, gain: 1 + 0.7 * tone(800, t) }) },
+    { offsetHz: -600_000, amplitude: 0.02, at: () => ({ deviationHz: 0, gain: 1 }) },
+    { offsetHz: -400_000, amplitude: 0.04, at: (t) => ({ deviationHz: 2400 * bit(4800, t, 11), gain: 1 }) },
+    { offsetHz: -150_000, amplitude: 0.05, at: (t) => ({ deviationHz: 1800 * bit(4800, t, 23), gain: t % 0.1 < 0.01 ? 1 : 0 }) },
+    { offsetHz: 250_000, amplitude: 0.04, at: (t) => ({ deviationHz: 0, gain: bit(1200, t, 37) > 0 ? 1 : 0 }) },
+    { offsetHz: 450_000, amplitude: 0.05, at: (t) => ({ deviationHz: 5000 * tone(1500, t), gain: 1 }) },
+    { offsetHz: 650_000, amplitude: 0.01, at: () => ({ deviationHz: 0, gain: 1 }) },
+    { offsetHz: 850_000, amplitude: 0.05, at: (t) => ({ deviationHz: 2500 * tone(600, t), gain: 1 }) },
+    { offsetHz: -1_050_000 + 2_000_000, amplitude: 0.04, at: (t) => ({ deviationHz: 60_000 * tone(5000, t), gain: 1 }) },
+  ];
+}
+
+/**
+ * Writes (or reuses) `<benchDir>/bench_survey_<MiB>MiB_2.4Msps.cf32`: ten emissions of mixed
+ * classes (FM, AM, CW, 2-FSK continuous and in 10 % bursts, OOK, a 130 kHz-wide FM) in −50 dBFS
+ * of noise, built block by block.
+ */
+export async function benchSurveyCapture(mebibytes: number): Promise<string> {
+  const dir = benchDir();
+  await mkdir(dir, { recursive: true });
+  const path = join(dir, `bench_survey_${mebibytes}MiB_2.4Msps.cf32`);
+  const bytes = mebibytes * 2 ** 20;
+  const existing = await stat(path).catch(() => null);
+  if (existing !== null && existing.size === bytes) return path;
+  const fs = BENCH_RATE_HZ;
+  const total = bytes / 8;
+  const emissions = surveyBenchEmissions();
+  const phases = new Float64Array(emissions.length);
+  const rng = new SeededRandom(2027);
+  const noise = Math.sqrt(1e-5 / 2);
+  const temp = `${path}.tmp-${process.pid}`;
+  const handle = await open(temp, "w");
+  const blockSamples = 1 << 18;
+  const block = new Float32Array(2 * blockSamples);
+  try {
+    for (let n = 0; n < total; n += blockSamples) {
+      const m = Math.min(blockSamples, total - n);
+      for (let k = 0; k < m; k++) {
+        const t = (n + k) / fs;
+        let i = noise * rng.gaussian();
+        let q = noise * rng.gaussian();
+        for (let e = 0; e < emissions.length; e++) {
+          const em = emissions[e] as BenchEmission;
+          const { deviationHz, gain } = em.at(t);
+          const ph = (phases[e] as number) + (2 * Math.PI * (em.offsetHz + deviationHz)) / fs;
+          phases[e] = ph > 1e4 ? ph % (2 * Math.PI) : ph;
+          i += em.amplitude * gain * Math.cos(ph);
+          q += em.amplitude * gain * Math.sin(ph);
+        }
+        block[2 * k] = i;
+        block[2 * k + 1] = q;
+      }
+      await handle.write(new Uint8Array(block.buffer, 0, 8 * m));
+    }
+  } finally {
+    await handle.close();
+  }
+  await rename(temp, path);
+  return path;
+}

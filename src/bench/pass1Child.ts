@@ -7,6 +7,7 @@ import { openCapture, resolveSpan } from "../capture/index.js";
 import { runPass1 } from "../analysis/index.js";
 import { measureEmission } from "../analysis/measureEmission.js";
 import { fftPlan } from "../dsp/index.js";
+import { surveyCapture } from "../survey/index.js";
 
 async function main(): Promise<void> {
   const [mode, path, workersText] = process.argv.slice(2) as [string, string, string | undefined];
@@ -41,6 +42,20 @@ async function main(): Promise<void> {
     await source.close();
     extra = { pass1S: Number(afterPass1 - started) / 1e9, pass2S: Number(process.hrtime.bigint() - afterPass1) / 1e9 };
     process.stderr.write(`measured class ${figures.modulation.class}\n`);
+  } else if (mode === "survey") {
+    // survey: pass 1, then detection, one extraction read and the analyses.
+    const source = await openCapture(path, {});
+    const { span } = resolveSpan(source.meta);
+    samples = span.sampleCount;
+    const pass1 = await runPass1(source.meta, span, {});
+    const afterPass1 = process.hrtime.bigint();
+    const r = await surveyCapture(source, span, pass1, {});
+    await source.close();
+    extra = {
+      pass1S: Number(afterPass1 - started) / 1e9, detectionS: r.timingS.detection, extractionS: r.timingS.extraction,
+      analysesS: r.timingS.analyses, emissions: r.detection.emissions.filter((e) => e.artefact === null).length,
+    };
+    process.stderr.write(`survey classes: ${r.measured.map((m) => `${m.figures.modulation.class}${m.figures.modulation.order ?? ""}`).join(" ")}\n`);
   } else if (mode === "read") {
     const handle = await open(path, "r");
     const buffer = new Uint8Array(8 << 20);

@@ -43,18 +43,23 @@ export interface SurveyResult {
   readonly detection: Detection;
   readonly measured: readonly SurveyedEmission[];
   readonly warnings: readonly string[];
+  /** Wall time of each stage after pass 1, s (for `npm run bench`). */
+  readonly timingS: { readonly detection: number; readonly extraction: number; readonly analyses: number };
 }
 
 export const SURVEY_DEFAULTS = { maxChannelSamples: 1 << 20, blockSamples: 1 << 16 } as const;
 
 /** The survey of `span` (module comment). */
 export async function surveyCapture(source: CaptureSource, span: SampleSpan, pass1: Pass1Result, options: SurveyOptions = {}): Promise<SurveyResult> {
+  const t0 = performance.now();
   const detection = detectEmissions(pass1, options);
+  const t1 = performance.now();
   const fs = source.meta.sampleRateHz;
   const audioHz = options.audioBandwidthHz ?? MEASURE_DEFAULTS.audioBandwidthHz;
   const emissions = detection.emissions.filter((e) => e.artefact === null);
   const channels = emissions.map((e) => channelOf(e, fs, pass1.psd.binWidthHz, audioHz));
   const records = await extractChannels(source, span, emissions, channels, options);
+  const t2 = performance.now();
   const measured: SurveyedEmission[] = [];
   for (let i = 0; i < emissions.length; i++) {
     const channel = channels[i] as { offsetHz: number; widthHz: number };
@@ -63,7 +68,8 @@ export async function surveyCapture(source: CaptureSource, span: SampleSpan, pas
     });
     measured.push({ emission: emissions[i] as DetectedEmission, channel, figures });
   }
-  return { detection, measured, warnings: detection.warnings };
+  const t3 = performance.now();
+  return { detection, measured, warnings: detection.warnings, timingS: { detection: (t1 - t0) / 1e3, extraction: (t2 - t1) / 1e3, analyses: (t3 - t2) / 1e3 } };
 }
 
 /**
