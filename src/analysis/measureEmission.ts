@@ -122,9 +122,9 @@ export async function measureEmission(
   const half = widthHz / 2;
   // The audio low-pass must fit below the channel's Nyquist frequency (with its transition band).
   const audioHz = Math.min(audioBandwidthHz, 0.39 * fsc);
-  if (audioHz < audioBandwidthHz) {
-    warnings.push(`the audio low-pass is narrowed from ${audioBandwidthHz} Hz to ${audioHz.toFixed(0)} Hz to fit the ${fsc.toFixed(0)} S/s channel (widen --channel to keep it)`);
-  }
+  const audioNarrowed = audioHz < audioBandwidthHz
+    ? `the audio low-pass is narrowed from ${audioBandwidthHz} Hz to ${audioHz.toFixed(0)} Hz to fit the ${fsc.toFixed(0)} S/s channel (widen --channel to keep it)`
+    : null;
   const psd = channelPsd(pass2.iq, fsc, widthHz);
   if (psd === null) {
     warnings.push("the channel holds too few samples to estimate its spectrum");
@@ -178,6 +178,8 @@ export async function measureEmission(
   let fsk: FskFiguresOut | null = null;
   let ook: OokFiguresOut | null = null;
   let necessary: Measurement = notAvailable("Hz", "47 CFR 2.202(g) / ITU-R SM.1138", "no necessary-bandwidth formula applies to this class");
+  // The audio low-pass only matters to the classes with audio figures.
+  if (audioNarrowed !== null && (cls === "fm" || cls === "am")) warnings.push(audioNarrowed);
   if (cls === "fm") {
     const f = fmFigures(iq, fsc, { audioBandwidthHz: audioHz, noiseFloorPerHz: floor });
     carrier = f.carrierOffsetHz;

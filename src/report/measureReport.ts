@@ -59,14 +59,22 @@ class Ledger {
   readonly uncertainty: Record<string, number> = {};
   readonly methods: Record<string, string> = {};
   readonly unavailable: Record<string, string> = {};
-  readonly warnings: string[] = [];
+  /** Each warning once, with every figure path that gave it (an OBW and its two edges share one). */
+  private readonly warningPaths = new Map<string, string[]>();
+  get warnings(): string[] {
+    return [...this.warningPaths].map(([w, paths]) => `${paths.join(", ")}: ${w}`);
+  }
   take(path: string, m: Measurement): N {
     if (m.value !== null && m.uncertainty !== null) this.uncertainty[path] = m.uncertainty;
     if (m.method !== "") this.methods[path] = m.method;
     if (m.value === null) {
       if (m.warnings.length > 0) this.unavailable[path] = m.warnings.join("; ");
     } else {
-      for (const w of m.warnings) if (!this.warnings.includes(w)) this.warnings.push(`${path}: ${w}`);
+      for (const w of m.warnings) {
+        const paths = this.warningPaths.get(w);
+        if (paths === undefined) this.warningPaths.set(w, [path]);
+        else if (!paths.includes(path)) paths.push(path);
+      }
     }
     return m.value;
   }
