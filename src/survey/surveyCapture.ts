@@ -10,14 +10,16 @@
  * `maxChannelSamples` (2^20 complex float32 = 8 MiB) over the emission's time span: at most
  * 8 MiB an emission plus what one measurement allocates (docs/architecture.md).
  *
- * The analyses run one after another in this thread (the per-emission analyses in worker
- * threads, issue 9, are not built yet).
+ * The analyses run in worker threads on both cores (analysisPool.ts), each record transferred
+ * to its worker, not copied.
  */
 import type { CaptureSource, SampleSpan } from "../capture/index.js";
 import type { Pass1Result } from "../analysis/index.js";
 import type { Pass2Result } from "../analysis/pass2.js";
-import { measureEmission, MEASURE_DEFAULTS } from "../analysis/measureEmission.js";
+import { MEASURE_DEFAULTS } from "../analysis/measureEmission.js";
 import type { EmissionFigures } from "../analysis/emissionFigures.js";
+import { analysisContext } from "./analysisJob.js";
+import { analyseAll, analysisWorkers } from "./analysisPool.js";
 import { MultiChannelizer } from "../dsp/index.js";
 import { detectEmissions, type Detection, type DetectEmissionsOptions } from "./detectEmissions.js";
 import type { DetectedEmission } from "./detectedEmission.js";
@@ -28,6 +30,8 @@ export interface SurveyOptions extends DetectEmissionsOptions {
   readonly audioBandwidthHz?: number | undefined;
   /** Most decimated samples kept per channel (default 2^20). */
   readonly maxChannelSamples?: number | undefined;
+  /** Worker threads for the analyses (default: 2 on a machine of 2 or more cores; 0 = this thread). */
+  readonly workers?: number | undefined;
   /** Input samples of the extraction read done, of the total. */
   readonly onProgress?: ((doneSamples: number, totalSamples: number) => void) | undefined;
 }
@@ -45,6 +49,8 @@ export interface SurveyResult {
   readonly warnings: readonly string[];
   /** Wall time of each stage after pass 1, s (for `npm run bench`). */
   readonly timingS: { readonly detection: number; readonly extraction: number; readonly analyses: number };
+  /** Worker threads the analyses ran in (0 = the calling thread). */
+  readonly analysisWorkers: number;
 }
 
 export const SURVEY_DEFAULTS = { maxChannelSamples: 1 << 20, blockSamples: 1 << 16 } as const;
@@ -60,16 +66,14 @@ export async function surveyCapture(source: CaptureSource, span: SampleSpan, pas
   const channels = emissions.map((e) => channelOf(e, fs, pass1.psd.binWidthHz, audioHz));
   const records = await extractChannels(source, span, emissions, channels, options);
   const t2 = performance.now();
-  const measured: SurveyedEmission[] = [];
-  for (let i = 0; i < emissions.length; i++) {
-    const channel = channels[i] as { offsetHz: number; widthHz: number };
-    const figures = await measureEmission(source, span, pass1, {
-      channel, extractedChannel: records[i], audioBandwidthHz: audioHz,
-    });
-    measured.push({ emission: emissions[i] as DetectedEmission, channel, figures });
-  }
+  const jobs = records.map((record, i) => ({ channel: channels[i] as { offsetHz: number; widthHz: number }, record }));
+  const workers = analysisWorkers(jobs.length, options.workers);
+  const figures = await analyseAll(analysisContext(source.meta, span, pass1, audioHz), jobs, workers);
+  const measured: SurveyedEmission[] = emissions.map((emission, i) => ({
+    emission, channel: channels[i] as { offsetHz: number; widthHz: number }, figures: figures[i] as EmissionFigures,
+  }));
   const t3 = performance.now();
-  return { detection, measured, warnings: detection.warnings, timingS: { detection: (t1 - t0) / 1e3, extraction: (t2 - t1) / 1e3, analyses: (t3 - t2) / 1e3 } };
+  return { detection, measured, warnings: detection.warnings, timingS: { detection: (t1 - t0) / 1e3, extraction: (t2 - t1) / 1e3, analyses: (t3 - t2) / 1e3 }, analysisWorkers: workers };
 }
 
 /**
