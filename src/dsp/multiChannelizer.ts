@@ -84,6 +84,15 @@ export interface MultiChannelizerOptions {
    * (for a caller that copies the samples at once: no garbage a block); false (default): new arrays.
    */
   readonly reuseOutput?: boolean;
+  /**
+   * Absolute index of the first new sample, a multiple of `blockSamples` (default 0): the stream is
+   * resumed there, as if samples [0, resumeAt) had been pushed before. The first `overlapSamples`
+   * samples pushed must then be samples [resumeAt − V, resumeAt) (the overlap prefix; they give no
+   * output), and each channel's first output is output index resumeAt/D. A stream cut at a block
+   * boundary into parts, each pushed through its own channelizer, gives the samples of the whole
+   * (so the parts can run in parallel).
+   */
+  readonly resumeAt?: number;
 }
 
 /** Defaults of MultiChannelizerOptions. */
@@ -172,6 +181,8 @@ export class MultiChannelizer {
   private readonly states: readonly ChannelState[];
   /** New samples in `input` after the overlap. */
   private fill = 0;
+  /** Samples of the overlap prefix still to be pushed (resumeAt > 0). */
+  private prefixLeft = 0;
   /** Absolute index of the current block's first new sample, s. */
   private blockStart = 0;
   private flushed = false;
@@ -202,7 +213,13 @@ export class MultiChannelizer {
     this.plan = fftPlan(N);
     this.input = this.plan.createBuffer();
     this.spectrum = this.plan.createBuffer();
-    this.states = designs.map((d) => channelState(d.info, d.taps, this.plan, this.input, options.reuseOutput === true));
+    const resumeAt = options.resumeAt ?? 0;
+    if (!(Number.isSafeInteger(resumeAt) && resumeAt >= 0 && resumeAt % this.blockSamples === 0)) {
+      throw new RangeError(`resumeAt ${resumeAt} is not a non-negative multiple of the block length ${this.blockSamples}`);
+    }
+    this.blockStart = resumeAt;
+    this.prefixLeft = resumeAt > 0 ? this.overlapSamples : 0;
+    this.states = designs.map((d) => channelState(d.info, d.taps, this.plan, this.input, options.reuseOutput === true, resumeAt));
     this.input.fill(0);
     this.channels = designs.map((d) => d.info);
   }
@@ -216,9 +233,13 @@ export class MultiChannelizer {
     if (this.flushed) throw new RangeError("push after flush: the stream has ended");
     if (iq.length % 2 !== 0) throw new RangeError(`iq length ${iq.length} is not even (interleaved I,Q)`);
     const n = iq.length / 2;
-    const blocks = Math.floor((this.fill + n) / this.blockSamples);
+    let done = Math.min(n, this.prefixLeft);
+    if (done > 0) {
+      copyIn(iq, 0, this.input, 2 * (this.overlapSamples - this.prefixLeft), 2 * done);
+      this.prefixLeft -= done;
+    }
+    const blocks = Math.floor((this.fill + n - done) / this.blockSamples);
     const outs = this.states.map((s) => outputArray(s, 2 * blocks * (this.blockSamples / s.info.decimation)));
-    let done = 0;
     let written = 0;
     while (done < n) {
       const take = Math.min(n - done, this.blockSamples - this.fill);
@@ -296,7 +317,7 @@ function designChannel(c: ChannelSpec, index: number, fs: number, stopbandDb: nu
  * which the caller clears) of h[n]·e^(j2π·Δ·n/fs): its bin q is Σ h[n]·e^(−j2π(q/N − Δ/fs)n),
  * the response of h_c at bin k_c + q.
  */
-function channelState(info: ChannelInfo, taps: Float64Array, plan: FftPlan, scratch: number[], reuse: boolean): ChannelState {
+function channelState(info: ChannelInfo, taps: Float64Array, plan: FftPlan, scratch: number[], reuse: boolean, resumeAt: number): ChannelState {
   const N = plan.size;
   const fs = info.outputRateHz * info.decimation;
   const nearest = Math.round((info.offsetHz * N) / fs);
@@ -319,7 +340,7 @@ function channelState(info: ChannelInfo, taps: Float64Array, plan: FftPlan, scra
   const small = fftPlan(kept);
   return {
     info, centreBin: ((nearest % N) + N) % N, response, plan: small,
-    selected: small.createBuffer(), small: small.createBuffer(), nco: new Nco(residualHz, info.outputRateHz),
+    selected: small.createBuffer(), small: small.createBuffer(), nco: new Nco(residualHz, info.outputRateHz, resumeAt / info.decimation),
     output: reuse ? new Float32Array(0) : null,
   };
 }
