@@ -9,7 +9,7 @@ import { isIqauditError, UsageError } from "./errors.js";
 import { TOOL_VERSION } from "./version.js";
 import { addCaptureOptions, captureArgs, type RawCaptureFlags } from "./cli/captureOptions.js";
 import { parseCount, parseFftLength, parseQuantity } from "./cli/quantity.js";
-import { clearProgressLine, createProgress } from "./cli/progress.js";
+import { clearProgressLine, createProgress, lazyProgress } from "./cli/progress.js";
 import { oneLine } from "./cli/errorLine.js";
 import { CAUTIONS } from "./cli/cautions.js";
 import { inspectCommand } from "./commands/inspect.js";
@@ -176,6 +176,7 @@ function program(): Command {
     .option("--sigmf-annotations", "also write <capture>.survey.sigmf-meta beside the capture: its metadata with one annotation per emission (never the capture's own .sigmf-meta)")
     .option("-o, --out <dir>", "write survey.json, survey.md, survey.png and a folder per emission into this folder, published whole")
     .option("--json", "print the survey as one JSON document on stdout (schema iqaudit/survey/1)")
+    .option("--threads <n>", "worker threads for the channel extraction and the analyses: 2 by default on a machine of two or more cores; 1 or 0 to use less memory (0: all in the main thread)")
     .addHelpText(
       "after",
       "\nThe detection threshold follows from --pfa and the chi-square law of averaged periodograms (docs/methods.md).\n" +
@@ -184,9 +185,12 @@ function program(): Command {
     .action(
       async (
         path: string,
-        flags: RawCaptureFlags & { pfa: string; minBandwidth: string; minDuration: string; audioBw: string; sigmfAnnotations?: boolean; out?: string; json?: boolean },
+        flags: RawCaptureFlags & { pfa: string; minBandwidth: string; minDuration: string; audioBw: string; sigmfAnnotations?: boolean; out?: string; json?: boolean; threads?: string },
       ) => {
         const progress = createProgress(`survey ${path}`, !quiet());
+        const threads = flags.threads === undefined ? undefined : parseQuantity("--threads", flags.threads, { unit: "none", min: 0, minInclusive: true });
+        if (threads !== undefined && !(Number.isInteger(threads) && threads <= 8)) throw new UsageError("--threads", `${flags.threads} must be a whole number from 0 to 8`);
+        const extraction = lazyProgress(() => { progress.done(); return createProgress(`survey ${path}: channels`, !quiet()); });
         const pfa = parseQuantity("--pfa", flags.pfa, { unit: "none", min: 0 });
         if (!(pfa > 0 && pfa < 1)) throw new UsageError("--pfa", `${flags.pfa} must lie between 0 and 1`);
         const result = await surveyCommand(path, {
@@ -197,9 +201,12 @@ function program(): Command {
           audioBandwidthHz: parseQuantity("--audio-bw", flags.audioBw, { unit: "Hz", min: 0 }),
           sigmfAnnotations: flags.sigmfAnnotations === true,
           outDir: flags.out === undefined ? undefined : parseOutPath("--out", flags.out),
+          workers: threads,
           pass1: { onProgress: progress.onProgress },
+          extractionProgress: extraction.onProgress,
         });
         progress.done();
+        extraction.done();
         warn(result.report.warnings);
         const written = result.files.length === 0 ? "" : `\nWritten: ${result.files.length} files under ${flags.out ?? "."}${result.files.some((f) => f.endsWith(".sigmf-meta")) ? ` and ${result.files.find((f) => f.endsWith(".sigmf-meta"))}` : ""}\n`;
         await writeStdout(flags.json === true ? `${JSON.stringify(result.report, null, 2)}\n` : `${surveyMarkdown(result.report)}${written}`);

@@ -52,3 +52,20 @@ export function createProgress(label: string, enabled: boolean, stream: NodeJS.W
     },
   };
 }
+
+/**
+ * A progress line made at its first report (`make` may end the line before it): for a second
+ * stage whose start the caller does not see, such as the survey's extraction read after pass 1.
+ */
+export function lazyProgress(make: () => Progress): Progress {
+  let made: Progress | null = null;
+  return {
+    onProgress(doneBytes, totalBytes) {
+      made ??= make();
+      made.onProgress?.(doneBytes, totalBytes);
+    },
+    done() {
+      made?.done();
+    },
+  };
+}

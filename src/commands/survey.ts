@@ -25,6 +25,8 @@ export interface SurveyCommandOptions extends SurveyOptions {
   /** Also write `<capture>.survey.sigmf-meta` beside the capture. */
   readonly sigmfAnnotations?: boolean | undefined;
   readonly pass1?: Pass1Options | undefined;
+  /** Bytes of the extraction read done, of the total (the second read of the file). */
+  readonly extractionProgress?: ((doneBytes: number, totalBytes: number) => void) | undefined;
 }
 
 export interface SurveyCommandResult {
@@ -39,7 +41,10 @@ export const SURVEY_FOLDER: FolderSpec = { manifest: "survey.json", legacyEntry:
 export async function surveyCommand(path: string, options: SurveyCommandOptions): Promise<SurveyCommandResult> {
   const run = (write: (a: AnalysedCapture, report: SurveyReport) => Promise<SurveyCommandResult>): Promise<SurveyCommandResult> =>
     withAnalysedCapture(path, options.capture, options.pass1 ?? {}, async (a, source) => {
-      const report = surveyReportOf(a, await surveyCapture(source, a.span, a.pass1, options));
+      const fb = a.meta.frameBytes;
+      const onProgress = options.extractionProgress === undefined ? options.onProgress
+        : (done: number, total: number): void => options.extractionProgress?.(done * fb, total * fb);
+      const report = surveyReportOf(a, await surveyCapture(source, a.span, a.pass1, { ...options, onProgress }));
       const written = await write(a, report);
       if (options.sigmfAnnotations !== true) return written;
       return { ...written, files: [...written.files, await writeAnnotations(a.meta, report)] };

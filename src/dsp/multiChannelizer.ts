@@ -285,7 +285,7 @@ export class MultiChannelizer {
       rotateOut(s.small, this.overlapSamples / D, count, Math.cos(a) / D, Math.sin(a) / D, out);
       s.nco.mix(out, out);
     });
-    this.input.copyWithin(0, 2 * this.blockSamples, 2 * N);
+    moveOverlap(this.input, 2 * this.blockSamples, 2 * this.overlapSamples);
     this.fill = 0;
     this.blockStart += this.blockSamples;
   }
@@ -355,6 +355,15 @@ function outputArray(s: ChannelState, length: number): Float32Array {
 /** Copies `count` floats of `from` (from index a) into the plain array `to` (from index b). */
 function copyIn(from: Float32Array, a: number, to: number[], b: number, count: number): void {
   for (let i = 0; i < count; i++) to[b + i] = from[a + i] as number;
+}
+
+/**
+ * a[0, count) = a[from, from + count): a plain loop, since Array.prototype.copyWithin on the plain
+ * array fft.js works on takes the generic path, 30 times slower (measured: 431 µs against 13 µs
+ * for 8192 values), more than the block's transform itself.
+ */
+function moveOverlap(a: number[], from: number, count: number): void {
+  for (let i = 0; i < count; i++) a[i] = a[from + i] as number;
 }
 
 /** selected[q] = X[(k_c + q') mod N]·H[q], q' = q for q < K/2, q − K above (K kept bins). */

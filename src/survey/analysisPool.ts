@@ -1,7 +1,8 @@
 /**
  * The survey's per-emission analyses on both cores: a pool of worker threads (analysisWorker.js,
  * only in the compiled build; from sources, or on one core, they run in this thread). Each job's
- * record is transferred to its worker, not copied, so the channel records are held once; the
+ * record is shared with its worker (a SharedArrayBuffer from the extraction) or transferred to it,
+ * never copied, so the channel records are held once; the
  * longest records go first, so that the two workers finish close together.
  *
  * Memory: each worker holds its copy of the context (the pass-1 PSD, about 100 kB), the record it
@@ -52,7 +53,8 @@ function drain(context: AnalysisContext, jobs: readonly AnalysisJob[], queue: nu
       if (i === undefined) { void worker.terminate().then(() => resolve()); return; }
       current = i;
       const job = jobs[i] as AnalysisJob;
-      worker.postMessage(job, [job.record.iq.buffer as ArrayBuffer]);
+      const buffer = job.record.iq.buffer;
+      worker.postMessage(job, buffer instanceof ArrayBuffer ? [buffer] : []);
     };
     worker.on("message", (reply: AnalysisReply) => {
       if (!reply.ok) { fail(new Error(reply.message)); return; }

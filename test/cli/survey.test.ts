@@ -63,4 +63,12 @@ describe("iqaudit survey", () => {
     expect((JSON.parse(j.stdout) as { emissions: unknown[] }).emissions.length).toBeGreaterThanOrEqual(capture.emissions.length);
     expect(expectOneErrorLine(runCli(["survey", input, "--pfa", "2"]))).toContain("--pfa");
   });
+
+  it("--threads 0 (everything in the main thread) prints the same table; a fractional --threads is one error line", () => {
+    const rows = (s: string): string[] => s.split("\n").filter((l) => /^\| \d+ \|/.test(l));
+    const one = runCli(["survey", input, "--threads", "0"]);
+    expect(one.status, one.stderr).toBe(0);
+    expect(rows(one.stdout)).toEqual(rows(r.stdout));
+    expect(expectOneErrorLine(runCli(["survey", input, "--threads", "1.5"]))).toContain("--threads");
+  });
 });
