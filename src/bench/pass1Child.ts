@@ -49,7 +49,7 @@ async function main(): Promise<void> {
     samples = span.sampleCount;
     const pass1 = await runPass1(source.meta, span, {});
     const afterPass1 = process.hrtime.bigint();
-    const r = await surveyCapture(source, span, pass1, {});
+    const r = await surveyCapture(source, span, pass1, { workers: workersText === undefined ? undefined : Number(workersText) });
     await source.close();
     extra = {
       pass1S: Number(afterPass1 - started) / 1e9, detectionS: r.timingS.detection, extractionS: r.timingS.extraction,

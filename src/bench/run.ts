@@ -72,12 +72,15 @@ async function main(): Promise<void> {
   const surveyPath = await benchSurveyCapture(surveyMiB);
   const inspect = run("pass1", surveyPath);
   const survey = run("survey", surveyPath);
+  const surveyOne = run("survey", surveyPath, "1");
+  const line = (label: string, r: RunResult): string =>
+    `  ${label.padEnd(19)} ${r.seconds.toFixed(2)} s  RSS ${r.maxRssMiB.toFixed(0)} MiB  (${r.emissions ?? 0} emissions; ` +
+    `pass 1 ${(r.pass1S ?? 0).toFixed(2)} s, detection ${(r.detectionS ?? 0).toFixed(2)} s, extraction ${(r.extractionS ?? 0).toFixed(2)} s, ` +
+    `analyses ${(r.analysesS ?? 0).toFixed(2)} s; ${(r.seconds / inspect.seconds).toFixed(2)} x inspect)\n`;
   process.stdout.write(
     `${surveyMiB} MiB cf32 survey capture, ten emissions at 2.4 MS/s (${(survey.samples / 1e6).toFixed(1)} MS)\n` +
       `  inspect (pass 1)    ${inspect.seconds.toFixed(2)} s  RSS ${inspect.maxRssMiB.toFixed(0)} MiB\n` +
-      `  survey              ${survey.seconds.toFixed(2)} s  RSS ${survey.maxRssMiB.toFixed(0)} MiB  (${survey.emissions ?? 0} emissions; ` +
-      `pass 1 ${(survey.pass1S ?? 0).toFixed(2)} s, detection ${(survey.detectionS ?? 0).toFixed(2)} s, extraction ${(survey.extractionS ?? 0).toFixed(2)} s, ` +
-      `analyses ${(survey.analysesS ?? 0).toFixed(2)} s; ${(survey.seconds / inspect.seconds).toFixed(2)} x inspect)\n\n`,
+      line("survey, 2 threads", survey) + line("survey, 1 thread", surveyOne) + "\n",
   );
   process.stdout.write(
     "targets (1 GiB on 2 cores): pass 1 >= 25 MS/s, peak RSS <= 150 MiB, RSS of 256 MiB within a few MiB of 1 GiB;\n" +
