@@ -63,6 +63,8 @@ export {
   type LineFigureAxisInput,
   type LineSeries,
   type MarkerLine,
+  type ShadedSpan,
+  type PointNote,
 } from "./lineFigure.js";
 export { drawMarkerLines } from "./markerLines.js";
 export {

@@ -31,6 +31,22 @@ export interface MarkerLine {
   readonly colour?: Rgb;
 }
 
+/** A span of x shaded across the whole plot height, drawn under the series (e.g. where a limit is broken). */
+export interface ShadedSpan {
+  readonly fromX: number;
+  readonly toX: number;
+  readonly colour: Rgb;
+}
+
+/** A point marked with a ring and a text beside it (e.g. the worst margin). */
+export interface PointNote {
+  readonly x: number;
+  readonly y: number;
+  readonly text: string;
+  /** Default: MARKER_COLOUR. */
+  readonly colour?: Rgb;
+}
+
 /** One axis of a line figure. The range defaults to the data (and markers); y gets 5 % headroom each side. */
 export interface LineFigureAxisInput {
   /** Name without the unit; the unit (SI-prefixed for hertz and seconds) is added in brackets. */
@@ -48,6 +64,8 @@ export interface LineFigureInput {
   readonly y: LineFigureAxisInput;
   readonly series: readonly LineSeries[];
   readonly markers?: readonly MarkerLine[];
+  readonly shaded?: readonly ShadedSpan[];
+  readonly notes?: readonly PointNote[];
   /** Size of the whole image, at least 480 × 320 px. */
   readonly widthPx: number;
   readonly heightPx: number;
@@ -157,6 +175,11 @@ export function renderLineFigure(input: LineFigureInput): {
   });
 
   canvas.setClip(plot);
+  for (const span of input.shaded ?? []) {
+    const a = Math.floor(Math.min(px(span.fromX), px(span.toX)));
+    const b = Math.ceil(Math.max(px(span.fromX), px(span.toX)));
+    canvas.fillRect({ x: a, y: plot.y, width: Math.max(1, b - a), height: plot.height }, span.colour);
+  }
   input.series.forEach((series, i) => {
     const colour = colours[i] ?? MARKER_COLOUR;
     const style = series.dashed === true ? { widthPx: s, dashPx: [5 * s, 3 * s] as const } : { widthPx: s };
@@ -176,7 +199,28 @@ export function renderLineFigure(input: LineFigureInput): {
   });
 
   drawMarkerLines(canvas, plot, input.markers ?? [], px, py, s);
+  for (const note of input.notes ?? []) drawNote(canvas, plot, note, px, py, s);
   canvas.setClip(null);
 
   return { png: encodePng(canvas), layout: { plot }, xOf, yOf };
+}
+
+/** A ring at the note's point and its text on a page-coloured patch beside it, kept inside the plot. */
+function drawNote(canvas: RgbaCanvas, plot: { x: number; y: number; width: number; height: number }, note: PointNote, px: (x: number) => number, py: (y: number) => number, s: number): void {
+  const colour = note.colour ?? MARKER_COLOUR;
+  const cx = Math.round(px(note.x));
+  const cy = Math.round(py(note.y));
+  const r = 5 * s;
+  for (let k = 0; k < 32; k++) {
+    const a0 = (2 * Math.PI * k) / 32;
+    const a1 = (2 * Math.PI * (k + 1)) / 32;
+    canvas.line(cx + r * Math.cos(a0), cy + r * Math.sin(a0), cx + r * Math.cos(a1), cy + r * Math.sin(a1), colour, { widthPx: s });
+  }
+  const w = textWidthPx(note.text, s) + 4 * s;
+  const h = textHeightPx(s) + 2 * s;
+  const right = cx + r + 3 * s + w <= plot.x + plot.width;
+  const x = right ? cx + r + 3 * s : cx - r - 3 * s - w;
+  const y = Math.min(plot.y + plot.height - h, Math.max(plot.y, cy - r - h));
+  canvas.fillRect({ x, y, width: w, height: h }, PAGE_STYLE.pageColour);
+  canvas.text(note.text, x + 2 * s, y + s, colour, { scale: s });
 }

@@ -57,6 +57,23 @@ describe("renderLineFigure", () => {
     expect(pixels.some(([x]) => Math.abs(x - column) > 3)).toBe(true);
   });
 
+  it("a shaded span covers exactly its columns across the plot height; a note rings its point", () => {
+    const SHADE: Rgb = [250, 215, 200];
+    const NOTE: Rgb = [90, 10, 120];
+    const { png, layout, xOf, yOf } = renderLineFigure(figure({ shaded: [{ fromX: 2e3, toX: 4e3, colour: SHADE }], notes: [{ x: 8e3, y: -50, text: "worst", colour: NOTE }] }));
+    const p = layout.plot;
+    const shaded = pixelsOf(png, SHADE);
+    const xs = shaded.map(([x]) => x);
+    // The span's pixel columns: xOf(2 kHz) to xOf(4 kHz) by the linear map, within the one column
+    // that rounding a continuous coordinate to a pixel column may move an edge.
+    expect(Math.abs(Math.min(...xs) - xOf(2e3))).toBeLessThanOrEqual(1);
+    expect(Math.abs(Math.max(...xs) + 1 - xOf(4e3))).toBeLessThanOrEqual(1);
+    const rows = new Set(shaded.map(([, y]) => y));
+    expect(rows.size).toBeGreaterThan(0.9 * p.height);
+    const ring = pixelsOf(png, NOTE).filter(([x, y]) => Math.hypot(x - xOf(8e3), y - yOf(-50)) < 8);
+    expect(ring.length).toBeGreaterThan(10);
+  });
+
   it("xOf / yOf are the linear maps of the axis ranges onto the plot, y minimum at the bottom", () => {
     const { layout, xOf, yOf } = renderLineFigure(figure());
     const p = layout.plot;
