@@ -97,10 +97,10 @@ export async function extractChannels(
   const progress = (n: number): void => { done += n; options.onProgress?.(Math.min(done, span.sampleCount), span.sampleCount); };
   if (shared) await Promise.all(parts.map((part) => inWorker(part, progress)));
   else await extractPart(source, parts[0] as ExtractionPart, progress);
-  const produced = Math.ceil(span.sampleCount);
   return bank.channels.map((info, i) => {
     const k = kept[i] as KeptRange;
-    const filled = Math.max(0, Math.min(k.count, Math.ceil(produced / info.decimation) - k.first));
+    // After the flush, channel i has given ⌈T/D⌉ outputs in all.
+    const filled = Math.max(0, Math.min(k.count, Math.ceil(span.sampleCount / info.decimation) - k.first));
     const c = channels[i] as { offsetHz: number; widthHz: number };
     const warnings = filled < k.count ? [`the channel's record ended ${k.count - filled} samples short of the emission's time span`] : [];
     return {
