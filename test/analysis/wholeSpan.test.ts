@@ -244,6 +244,20 @@ describe("wholeSpanFigures(source, span, options)", () => {
     expect(Math.abs(sum / count / expected - 1)).toBeLessThan(0.01);
   }, 120_000);
 
+  it("gives the same figures whatever the read block size, every whole frame counted once (block contract, dsp/frameGrid.ts)", async () => {
+    const gen = (): Generator => toneFm(fs, { start: 4 * fs + 12, length: wordLength }, { ...spur, start: 2 * fs, end: 3 * fs });
+    const big = await run(fs, 10 * fs, gen(), fmOptions);
+    const small = await run(fs, 10 * fs, gen(), { ...fmOptions, blockSamples: 4999 });
+    // Welch 1967: floor((n − L)/H) + 1 frames of the n samples measured.
+    expect(big.hold.frameCount).toBe(Math.floor((big.samples - 240) / 120) + 1);
+    expect(small.hold.frameCount).toBe(big.hold.frameCount);
+    expect(small.psd.segmentCount).toBe(Math.floor((big.samples - big.psd.fftLength) / (big.psd.fftLength / 2)) + 1);
+    for (let i = 0; i < big.hold.maxHoldDbfs.length; i++) expect(small.hold.maxHoldDbfs[i]).toBeCloseTo(big.hold.maxHoldDbfs[i] as number, 9);
+    expect(small.positivePeak.deviationHz.value).toBeCloseTo(big.positivePeak.deviationHz.value as number, 6);
+    expect(small.positivePeak.timeS).toBe(big.positivePeak.timeS);
+    expect(small.carrierOffsetHz.value).toBeCloseTo(big.carrierOffsetHz.value as number, 9);
+  }, 120_000);
+
   it("holds the same accumulator arrays for 1 minute as for 10 minutes (memory bound independent of the span)", async () => {
     const short = await run(fs, 60 * fs, toneFm(fs, { start: 30 * fs + 12, length: wordLength }, { ...spur, start: 10 * fs, end: 11 * fs }), fmOptions);
     expect(short.stateLengths.length).toBeGreaterThan(0);
