@@ -107,7 +107,7 @@ export interface WholeSpanFigures {
   readonly samples: number;
   /** Time covered by them, s. */
   readonly durationS: number;
-  /** Mean channel power, FS² (linear), and in dBFS. */
+  /** Mean channel power over the span, dBFS (10·log10 of the mean |x|², full scale 1). */
   readonly meanPowerDbfs: number;
   /** Carrier, Hz from the capture centre (as recorded: the caller applies --ppm). */
   readonly carrierOffsetHz: Measurement<"Hz">;
