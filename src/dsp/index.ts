@@ -31,3 +31,7 @@ export {
   MultiChannelizer, MULTI_CHANNELIZER_DEFAULTS, MIN_CHANNEL_RATE_OVER_BANDWIDTH, MAX_DECIMATION, MAX_FFT_SIZE,
   DESIGN_MARGIN_DB, toneLeakage, type ChannelSpec, type ChannelInfo, type MultiChannelizerOptions,
 } from "./multiChannelizer.js";
+export { StreamingFirPair, type FirSink } from "./streamingFir.js";
+export {
+  SpectrumHoldAccumulator, holdFrameLength, type SpectrumHold, type SpectrumHoldOptions,
+} from "./spectrumHold.js";

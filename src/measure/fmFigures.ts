@@ -99,9 +99,7 @@ export function fmFigures(iq: Float32Array, sampleRateHz: number, options: FmFig
     throw new RangeError(`carrierOffsetHz ${options.carrierOffsetHz} is not finite`);
   }
   const f = instantaneousFrequencyHz(iq, sampleRateHz);
-  const taps = designLowpass({
-    cutoffHz: w, transitionHz: AUDIO_TRANSITION_SHARE * w, stopbandDb: AUDIO_STOPBAND_DB, sampleRateHz,
-  });
+  const taps = audioLowpassTaps(w, sampleRateHz);
   const skip = transientLength(taps);
   const method = [
     `discriminator arg(x[k+1]·conj(x[k]))·fs/2π, ${f.length} steps at ${sampleRateHz} Hz`,
@@ -181,6 +179,42 @@ export function fmFigures(iq: Float32Array, sampleRateHz: number, options: FmFig
 }
 
 /**
+ * The audio low-pass of the FM figures: Kaiser, passband 0–W, stopband from 1.25·W, 60 dB
+ * (designLowpass; odd, symmetric, unity DC gain). Shared with the whole-span stage so that both
+ * filter the deviation alike.
+ */
+export function audioLowpassTaps(audioBandwidthHz: number, sampleRateHz: number): Float64Array {
+  return designLowpass({
+    cutoffHz: audioBandwidthHz, transitionHz: AUDIO_TRANSITION_SHARE * audioBandwidthHz, stopbandDb: AUDIO_STOPBAND_DB, sampleRateHz,
+  });
+}
+
+/**
+ * ∫₀^{fs/2} |H(f)|²·f² df (inBand) and ∫₀^{fs/2} (1 − H(f))²·f² df (outBand), Hz³, for the
+ * zero-phase response H of the symmetric `taps` at `fs` (a 512-point midpoint sum): the f²
+ * noise law of the discriminator weighted by the audio low-pass and by its complement
+ * (deviationNoiseHz).
+ */
+export function audioNoiseIntegrals(taps: Float64Array, fs: number): { inBand: number; outBand: number } {
+  const points = 512;
+  let inBand = 0;
+  let outBand = 0;
+  const c = (taps.length - 1) / 2;
+  for (let j = 0; j < points; j++) {
+    const f = ((j + 0.5) / points) * (fs / 2);
+    let h = 0;
+    for (let k = 0; k < taps.length; k++) h += (taps[k] as number) * Math.cos((2 * Math.PI * f * (k - c)) / fs);
+    inBand += h * h * f * f;
+    outBand += (1 - h) ** 2 * f * f;
+  }
+  const df = fs / 2 / points;
+  return { inBand: inBand * df, outBand: outBand * df };
+}
+
+/** Passband ripple of the audio low-pass (δ = 10^(−60/20)), for the deviation's uncertainty. */
+export const FM_AUDIO_RIPPLE = AUDIO_RIPPLE;
+
+/**
  * Mean instantaneous frequency f̄ = (total phase advance)/(2π·T), T = N/fs. Its error is the
  * phase of the modulation and of the noise at the two ends, (ψ(T) − ψ(0))/(2πT), ψ the phase
  * about the carrier's; with s_ψ the spread of ψ over the record (in cycles: the running sum of
@@ -221,20 +255,7 @@ function deviationNoiseHz(
   iq: Float32Array, f: Float32Array, ref: number, a: Float64Array, taps: Float64Array, fs: number,
   first: number, end: number, n0: number | undefined,
 ): number {
-  const points = 512;
-  let inBand = 0;
-  let outBand = 0;
-  const c = (taps.length - 1) / 2;
-  for (let j = 0; j < points; j++) {
-    const f = ((j + 0.5) / points) * (fs / 2);
-    let h = 0;
-    for (let k = 0; k < taps.length; k++) h += (taps[k] as number) * Math.cos((2 * Math.PI * f * (k - c)) / fs);
-    inBand += h * h * f * f;
-    outBand += (1 - h) ** 2 * f * f;
-  }
-  const df = fs / 2 / points;
-  inBand *= df;
-  outBand *= df;
+  const { inBand, outBand } = audioNoiseIntegrals(taps, fs);
   if (n0 !== undefined && n0 > 0) {
     let p = 0;
     const n = iq.length >> 1;

@@ -1,9 +1,9 @@
 // The public surface of src/measure: re-exports only.
 export { measurement, notAvailable, type Measurement } from "./measurement.js";
 export { fastAtan2 } from "./fastAtan2.js";
-export { instantaneousFrequencyHz } from "./fmDiscriminator.js";
+export { instantaneousFrequencyHz, StreamingDiscriminator } from "./fmDiscriminator.js";
 export {
-  fmFigures, FM_FIGURES_DEFAULTS, type FmFigures, type FmFiguresOptions, type FmTrace,
+  fmFigures, FM_FIGURES_DEFAULTS, FM_AUDIO_RIPPLE, audioLowpassTaps, audioNoiseIntegrals, type FmFigures, type FmFiguresOptions, type FmTrace,
 } from "./fmFigures.js";
 export { CTCSS_TONES_HZ, nearestCtcssToneHz } from "./ctcssTones.js";
 export { besselJ, besselJZeros } from "./bessel.js";
