@@ -4,6 +4,7 @@
  * report and the figures by src/report/.
  */
 import type { WelchPsd } from "../dsp/index.js";
+import type { WholeSpanFigures } from "./wholeSpan.js";
 import type { Measurement } from "../measure/index.js";
 
 export type EmissionClass = "cw" | "am" | "fm" | "fsk" | "ook" | "psk" | "qam" | "noise" | "unknown";
@@ -29,6 +30,11 @@ export interface FmFiguresOut {
   readonly toneDeviationHz: Measurement;
   readonly besselNullIndex: Measurement;
   readonly audioBandwidthHz: number;
+  /** When the positive and the negative peak of the filtered deviation happened over the whole span, s from its start (null without the whole-span stage). */
+  readonly positivePeakTimeS: number | null;
+  readonly negativePeakTimeS: number | null;
+  /** What the peak deviations were taken over: the channel record, or (a record cut short) the whole span. */
+  readonly peaksOver: "record" | "whole span";
   /** Instantaneous frequency relative to the carrier, Hz. */
   readonly trace: Trace;
 }
@@ -124,5 +130,7 @@ export interface EmissionFigures {
   /** PSD of the channel baseband (0 Hz = channel.offsetHz), for the spectrum figure. */
   readonly channelPsd: WelchPsd | null;
   readonly noiseFloorDbfsPerHz: number;
+  /** The whole-span figures (carrier, peak deviations with times, PSD, max-hold spectra) when measureEmission read the channel itself, else null. */
+  readonly wholeSpan: WholeSpanFigures | null;
   readonly warnings: readonly string[];
 }

@@ -36,7 +36,8 @@ import {
   type Measurement,
 } from "../measure/index.js";
 import type { Pass1Result } from "./pass1.js";
-import { runPass2, type Pass2Result } from "./pass2.js";
+import { runPass2, type Pass2Result, type Pass2WholeSpan } from "./pass2.js";
+import type { WholeSpanFigures } from "./wholeSpan.js";
 import { correctedOffsetHz } from "./clockCorrection.js";
 import type { AmFiguresOut, DigitalFiguresOut, EmissionFigures, FmFiguresOut, FskFiguresOut, OokFiguresOut } from "./emissionFigures.js";
 import { digitalEmission } from "./digitalEmission.js";
@@ -71,6 +72,12 @@ export interface MeasureEmissionOptions {
    * `channel` should name the same (it bounds where the emission is located in the pass-1 PSD).
    */
   readonly extractedChannel?: Pass2Result | undefined;
+  /**
+   * Settings of the whole-span stage that runs beside pass 2 (wholeSpan.ts), e.g. the mask's
+   * resolution bandwidth for a licence check. The stage always runs when measureEmission reads
+   * the channel itself; not with `extractedChannel`.
+   */
+  readonly wholeSpan?: Omit<Pass2WholeSpan, "audioBandwidthHz"> | undefined;
   readonly onProgress?: ((doneSamples: number, totalSamples: number) => void) | undefined;
 }
 
@@ -113,9 +120,14 @@ export async function measureEmission(
   const minAutoHz = Math.max(16 * pass1.psd.binWidthHz, 2.5 * audioBandwidthHz);
   const widthHz = Math.min(options.channel?.widthHz ?? Math.max(region.widthHz * 1.6, minAutoHz), 0.9 * fs);
   const pass2 = options.extractedChannel
-    ?? await runPass2(source, span, { offsetHz, bandwidthHz: widthHz, maxSamples: options.maxChannelSamples, onProgress: options.onProgress });
+    ?? await runPass2(source, span, {
+      offsetHz, bandwidthHz: widthHz, maxSamples: options.maxChannelSamples, onProgress: options.onProgress,
+      wholeSpan: { ...options.wholeSpan, audioBandwidthHz },
+    });
   warnings.push(...pass2.warnings);
   const fsc = pass2.sampleRateHz;
+  // A record cut short of the span: the figures the worst moment decides come from the whole span.
+  const whole = wholeSpanInUse(pass2, region.dcSpikeSkipped);
   // The receiver's DC line, set aside above, sits at −offsetHz in the channel: remove it there too.
   // Outside the channel's Nyquist band, what the decimation filter let through of it sits at its alias.
   if (region.dcSpikeSkipped) removeLine(pass2.iq, fsc, aliasHz(-offsetHz, fsc));
@@ -125,7 +137,7 @@ export async function measureEmission(
   const audioNarrowed = audioHz < audioBandwidthHz
     ? `the audio low-pass is narrowed from ${audioBandwidthHz} Hz to ${audioHz.toFixed(0)} Hz to fit the ${fsc.toFixed(0)} S/s channel (widen --channel to keep it)`
     : null;
-  const psd = channelPsd(pass2.iq, fsc, widthHz);
+  const psd = whole?.psd ?? channelPsd(pass2.iq, fsc, widthHz);
   if (psd === null) {
     warnings.push("the channel holds too few samples to estimate its spectrum");
     return noEmission(pass1, dcSpike, xDb, options.nominalHz ?? null, warnings);
@@ -181,7 +193,7 @@ export async function measureEmission(
   // The audio low-pass only matters to the classes with audio figures.
   if (audioNarrowed !== null && (cls === "fm" || cls === "am")) warnings.push(audioNarrowed);
   if (cls === "fm") {
-    const f = fmFigures(iq, fsc, { audioBandwidthHz: audioHz, noiseFloorPerHz: floor });
+    const f = withWholeSpanPeaks(fmFigures(iq, fsc, { audioBandwidthHz: audioHz, noiseFloorPerHz: floor }), whole, offsetHz);
     carrier = f.carrierOffsetHz;
     const beta = f.modulationIndex.value;
     const fmod = f.modulatingFrequencyHz.value;
@@ -203,6 +215,9 @@ export async function measureEmission(
       toneDeviationHz: f.toneDeviationHz,
       besselNullIndex: nullIndex,
       audioBandwidthHz: f.audioBandwidthHz,
+      positivePeakTimeS: pass2.wholeSpan?.positivePeak.timeS ?? null,
+      negativePeakTimeS: pass2.wholeSpan?.negativePeak.timeS ?? null,
+      peaksOver: whole === null ? "record" : "whole span",
       trace: { timeS: shiftTimes(f.trace.timeS, pass2.startS), min: f.trace.minHz, max: f.trace.maxHz },
     };
     const tone = singleTone(f.modulatingToneShare, fmod);
@@ -311,7 +326,35 @@ export async function measureEmission(
     },
     channelPsd: psd,
     noiseFloorDbfsPerHz: pass1.noiseFloor.dbfsPerHz,
+    wholeSpan: pass2.wholeSpan,
     warnings,
+  };
+}
+
+/**
+ * The whole-span figures to measure with instead of the record's, or null: only when the record
+ * was cut short of the span (otherwise the record holds every sample and its own estimators, with
+ * their fuller uncertainty budgets, see the same samples), and not when a receiver DC line was
+ * removed from the record (the whole-span stage did not remove it).
+ */
+function wholeSpanInUse(pass2: Pass2Result, dcLineRemoved: boolean): WholeSpanFigures | null {
+  const ws = pass2.wholeSpan;
+  if (ws === null || pass2.complete || dcLineRemoved || ws.psd.segmentCount < 8) return null;
+  return ws;
+}
+
+/**
+ * fmFigures with the carrier and the peak deviations taken from the whole span (the same audio
+ * low-pass over every sample, wholeSpan.ts), when it is in use; carrier relative to the channel centre.
+ */
+function withWholeSpanPeaks<T extends ReturnType<typeof fmFigures>>(f: T, whole: WholeSpanFigures | null, channelOffsetHz: number): T {
+  if (whole === null || whole.peak.deviationHz.value === null || whole.carrierOffsetHz.value === null) return f;
+  return {
+    ...f,
+    carrierOffsetHz: { ...whole.carrierOffsetHz, value: whole.carrierOffsetHz.value - channelOffsetHz },
+    peakDeviationHz: whole.peak.deviationHz,
+    positiveDeviationHz: whole.positivePeak.deviationHz,
+    negativeDeviationHz: whole.negativePeak.deviationHz,
   };
 }
 
@@ -572,6 +615,7 @@ function noEmission(
     emission: { designator: null, designatorBasis: null, necessaryBandwidthHz: none("Hz", "necessary bandwidth"), method: "no emission" },
     channelPsd: null,
     noiseFloorDbfsPerHz: pass1.noiseFloor.dbfsPerHz,
+    wholeSpan: null,
     warnings,
   };
 }

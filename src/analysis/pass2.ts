@@ -6,9 +6,17 @@
  * bound on memory: 2^20 samples = 8 MiB by default, and the measurements after it allocate a
  * few times that); a longer span is measured over its first
  * `maxSamples` decimated samples, with a warning.
+ *
+ * With `wholeSpan`, the same read goes on to the end of the span and every channel block also
+ * feeds the whole-span accumulators (wholeSpan.ts: carrier, peak deviations with their times,
+ * Welch PSD, max-hold spectrum), which keep no record: the memory bound is unchanged.
  */
 import type { CaptureSource, SampleSpan } from "../capture/index.js";
 import { ChannelExtractor } from "../dsp/index.js";
+import { WholeSpanAccumulator, type WholeSpanFigures, type WholeSpanOptions } from "./wholeSpan.js";
+
+/** What the whole-span stage is asked for beside pass 2 (its channel is pass 2's). */
+export type Pass2WholeSpan = Pick<WholeSpanOptions, "audioBandwidthHz" | "maskResolutionHz" | "welchResolutionHz" | "carrierOffsetHz">;
 
 export interface Pass2Options {
   /** Centre of the channel, Hz from the capture centre. */
@@ -20,6 +28,8 @@ export interface Pass2Options {
   /** Input samples per block read (default 65 536, 512 KiB as cf32; the source reuses one block array, the extractor keeps none). */
   readonly blockSamples?: number | undefined;
   readonly onProgress?: ((doneSamples: number, totalSamples: number) => void) | undefined;
+  /** Also stream the whole span through the whole-span accumulators (module comment). */
+  readonly wholeSpan?: Pass2WholeSpan | undefined;
 }
 
 export interface Pass2Result {
@@ -33,6 +43,10 @@ export interface Pass2Result {
   readonly startS: number;
   /** Input samples read. */
   readonly inputSamples: number;
+  /** Whether `iq` holds every channel sample of the span (false: it was cut at maxSamples). */
+  readonly complete: boolean;
+  /** The whole-span figures, when asked for. */
+  readonly wholeSpan: WholeSpanFigures | null;
   readonly warnings: readonly string[];
 }
 
@@ -48,7 +62,14 @@ export async function runPass2(source: CaptureSource, span: SampleSpan, options:
   const skip = Math.ceil(extractor.delayS * fsOut);
   const expected = Math.max(0, Math.floor(span.sampleCount / extractor.decimation) - skip);
   const keep = Math.min(expected, maxSamples);
-  const inputNeeded = Math.min(span.sampleCount, (keep + skip + 2) * extractor.decimation + 64 * extractor.decimation);
+  const whole = options.wholeSpan === undefined ? null : new WholeSpanAccumulator(extractor, span.sampleCount, {
+    ...options.wholeSpan,
+    // Without a mask's RBW, 300 Hz (the check's default) or what a 32 768-sample frame allows at the channel rate.
+    maskResolutionHz: options.wholeSpan.maskResolutionHz ?? Math.max(300, (1.5 * fsOut) / 32_768),
+    offsetHz: options.offsetHz,
+    bandwidthHz: options.bandwidthHz,
+  });
+  const inputNeeded = whole !== null ? span.sampleCount : Math.min(span.sampleCount, (keep + skip + 2) * extractor.decimation + 64 * extractor.decimation);
   const out = new Float32Array(2 * keep);
   let kept = 0;
   let skipped = 0;
@@ -57,6 +78,7 @@ export async function runPass2(source: CaptureSource, span: SampleSpan, options:
   for await (const block of source.blocks({ startSample: span.startSample, sampleCount: inputNeeded }, blockSamples, { reuse: true })) {
     read += block.length / 2;
     const y = extractor.push(block);
+    whole?.push(y);
     let from = 0;
     const n = y.length / 2;
     if (skipped < skip) {
@@ -70,12 +92,20 @@ export async function runPass2(source: CaptureSource, span: SampleSpan, options:
       kept += take;
     }
     options.onProgress?.(read, inputNeeded);
-    if (kept >= keep) break;
+    if (kept >= keep && whole === null) break;
   }
   const warnings: string[] = [];
-  if (expected > maxSamples) {
+  const complete = expected <= maxSamples;
+  const wholeSpan = whole === null ? null : whole.finish();
+  if (wholeSpan !== null) warnings.push(...wholeSpan.warnings);
+  if (!complete) {
     const measuredS = (maxSamples / fsOut).toFixed(2);
-    warnings.push(`the emission was measured over the first ${measuredS} s of the ${(span.sampleCount / fs).toFixed(2)} s analysed (the decimated channel is kept up to ${maxSamples} samples)`);
+    const analysedS = (span.sampleCount / fs).toFixed(2);
+    warnings.push(
+      wholeSpan === null
+        ? `the emission was measured over the first ${measuredS} s of the ${analysedS} s analysed (the decimated channel is kept up to ${maxSamples} samples)`
+        : `the carrier, peak deviation, occupied bandwidth and spectra cover the whole ${analysedS} s analysed; the class and the other figures its first ${measuredS} s (the decimated channel is kept up to ${maxSamples} samples)`,
+    );
   }
   return {
     iq: kept === keep ? out : out.subarray(0, 2 * kept),
@@ -85,6 +115,8 @@ export async function runPass2(source: CaptureSource, span: SampleSpan, options:
     bandwidthHz: options.bandwidthHz,
     startS: skip / fsOut,
     inputSamples: read,
+    complete,
+    wholeSpan,
     warnings,
   };
 }

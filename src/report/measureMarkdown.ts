@@ -45,6 +45,8 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
       { label: `Peak deviation (audio ≤ ${formatHz(r.fm.audioBandwidthHz)})`, path: "fm.peakDeviationHz", value: r.fm.peakDeviationHz, unit: "Hz", digits: 0 },
       { label: "Positive deviation", path: "fm.positiveDeviationHz", value: r.fm.positiveDeviationHz, unit: "Hz", digits: 0 },
       { label: "Negative deviation", path: "fm.negativeDeviationHz", value: r.fm.negativeDeviationHz, unit: "Hz", digits: 0 },
+      { label: `Time of the positive peak (from the span start; peaks over the ${r.fm.peaksOver})`, path: "fm.positiveDeviationTimeS", value: r.fm.positiveDeviationTimeS, unit: "s", digits: 3 },
+      { label: "Time of the negative peak", path: "fm.negativeDeviationTimeS", value: r.fm.negativeDeviationTimeS, unit: "s", digits: 3 },
       { label: "RMS deviation", path: "fm.rmsDeviationHz", value: r.fm.rmsDeviationHz, unit: "Hz", digits: 0 },
       { label: "Peak deviation, unfiltered", path: "fm.rawPeakDeviationHz", value: r.fm.rawPeakDeviationHz, unit: "Hz", digits: 0 },
       { label: "Modulating frequency", path: "fm.modulatingFrequencyHz", value: r.fm.modulatingFrequencyHz, unit: "Hz", digits: 1 },

@@ -31,6 +31,8 @@ export interface MeasureReport {
   readonly fm: {
     readonly peakDeviationHz: N; readonly positiveDeviationHz: N; readonly negativeDeviationHz: N; readonly rmsDeviationHz: N;
     readonly rawPeakDeviationHz: N; readonly audioBandwidthHz: number;
+    /** When the positive / negative peak happened, s from the start of the analysed span; what the peaks were taken over. */
+    readonly positiveDeviationTimeS: N; readonly negativeDeviationTimeS: N; readonly peaksOver: "record" | "whole span";
     readonly modulatingFrequencyHz: N; readonly modulationIndex: N; readonly carsonBandwidthHz: N;
     readonly toneHz: N; readonly toneStandardHz: N; readonly toneDeviationHz: N; readonly besselNullIndex: N;
   } | null;
@@ -135,6 +137,9 @@ export function buildMeasureReport(
             rmsDeviationHz: l.take("fm.rmsDeviationHz", fm.rmsDeviationHz),
             rawPeakDeviationHz: l.take("fm.rawPeakDeviationHz", fm.rawPeakDeviationHz),
             audioBandwidthHz: fm.audioBandwidthHz,
+            positiveDeviationTimeS: fm.positivePeakTimeS,
+            negativeDeviationTimeS: fm.negativePeakTimeS,
+            peaksOver: fm.peaksOver,
             modulatingFrequencyHz: l.take("fm.modulatingFrequencyHz", fm.modulatingFrequencyHz),
             modulationIndex: l.take("fm.modulationIndex", fm.modulationIndex),
             carsonBandwidthHz: l.take("fm.carsonBandwidthHz", fm.carsonBandwidthHz),

@@ -28,6 +28,7 @@ export function measureText(r: MeasureReport, files: readonly string[]): string 
     rows.push(
       ["peak deviation", `${withU(r, "fm.peakDeviationHz", r.fm.peakDeviationHz, hz)} (audio ≤ ${formatHz(r.fm.audioBandwidthHz)})`],
       ["  + / −", `${withU(r, "fm.positiveDeviationHz", r.fm.positiveDeviationHz, hz)} / ${withU(r, "fm.negativeDeviationHz", r.fm.negativeDeviationHz, hz)}`],
+      ["  at", `${r.fm.positiveDeviationTimeS === null ? "n/a" : `${r.fm.positiveDeviationTimeS.toFixed(3)} s`} / ${r.fm.negativeDeviationTimeS === null ? "n/a" : `${r.fm.negativeDeviationTimeS.toFixed(3)} s`} (peaks over the ${r.fm.peaksOver})`],
       ["RMS deviation", withU(r, "fm.rmsDeviationHz", r.fm.rmsDeviationHz, hz)],
       ["modulating frequency", withU(r, "fm.modulatingFrequencyHz", r.fm.modulatingFrequencyHz, hz)],
       ["modulation index", withU(r, "fm.modulationIndex", r.fm.modulationIndex, (x) => x.toFixed(3), "", 3)],

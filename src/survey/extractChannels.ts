@@ -106,7 +106,7 @@ export async function extractChannels(
     return {
       iq: k.out.subarray(0, 2 * filled), sampleRateHz: info.outputRateHz, decimation: info.decimation,
       offsetHz: c.offsetHz, bandwidthHz: c.widthHz, startS: k.first / info.outputRateHz - info.delayS,
-      inputSamples: span.sampleCount, warnings,
+      inputSamples: span.sampleCount, complete: filled === k.count, wholeSpan: null, warnings,
     };
   });
 }
