@@ -16,7 +16,7 @@ import { ChannelExtractor } from "../dsp/index.js";
 import { WholeSpanAccumulator, type WholeSpanFigures, type WholeSpanOptions } from "./wholeSpan.js";
 
 /** What the whole-span stage is asked for beside pass 2 (its channel is pass 2's). */
-export type Pass2WholeSpan = Pick<WholeSpanOptions, "audioBandwidthHz" | "maskResolutionHz" | "welchResolutionHz" | "carrierOffsetHz">;
+export type Pass2WholeSpan = Pick<WholeSpanOptions, "audioBandwidthHz" | "maskResolutionHz" | "welchResolutionHz" | "carrierOffsetHz" | "referenceBandHz">;
 
 export interface Pass2Options {
   /** Centre of the channel, Hz from the capture centre. */

@@ -61,6 +61,8 @@ export interface WholeSpanOptions {
   readonly audioBandwidthHz?: number | undefined;
   /** Resolution bandwidth (ENBW) of the max-hold and average spectra, Hz (default 300). */
   readonly maskResolutionHz?: number | undefined;
+  /** Width of the band, centred on the channel, whose highest per-frame power is kept (`hold.bandPeakDbfs`: a mask's "peak" reference), Hz. */
+  readonly referenceBandHz?: number | undefined;
   /** Upper bound on the Welch PSD's resolution bandwidth (ENBW), Hz; default bins of at most bandwidthHz/400 (as `measure`). */
   readonly welchResolutionHz?: number | undefined;
   /** Input samples per read block (default 65 536). */
@@ -94,6 +96,9 @@ export interface HoldSpectra {
   readonly peakDbfs: number;
   readonly peakFrequencyHz: number;
   readonly peakTimeS: number | null;
+  /** With `referenceBandHz`: the highest power one frame held within that band, dBFS, and when (frame centre, s); else null. */
+  readonly bandPeakDbfs: number | null;
+  readonly bandPeakTimeS: number | null;
   /** The linear result (FS² in the RBW), for further computation. */
   readonly linear: SpectrumHold;
 }
@@ -252,7 +257,9 @@ export class WholeSpanAccumulator {
     if (!(rbw > 0 && Number.isFinite(rbw))) throw new RangeError(`maskResolutionHz ${rbw} is not a positive finite frequency`);
     const holdLength = holdFrameLength(rbw, fsc);
     if (holdLength > 65_536) throw new RangeError(`maskResolutionHz ${rbw} Hz needs frames of ${holdLength} samples at ${fsc} S/s (at most 65 536)`);
-    this.hold = new SpectrumHoldAccumulator({ frameLength: holdLength, sampleRateHz: fsc });
+    const band = options.referenceBandHz;
+    if (band !== undefined && !(band > 0 && Number.isFinite(band))) throw new RangeError(`referenceBandHz ${band} is not a positive finite width`);
+    this.hold = new SpectrumHoldAccumulator({ frameLength: holdLength, sampleRateHz: fsc, ...(band === undefined ? {} : { bandHz: band }) });
     const prefix = Math.max(this.welch.snapshot().fftLength, holdLength) - 1;
     this.carry = new Float32Array(2 * prefix);
   }
@@ -416,6 +423,11 @@ export class WholeSpanAccumulator {
     return { positivePeak, negativePeak, peak, rawPeakDeviationHz: Math.max(e.rawMax - refHz, refHz - e.rawMin, 0), deviationNoiseHz: sigma };
   }
 
+  /** Centre of hold frame `frame`, s from the span start; NaN for −1 (no frame). */
+  private frameTimeS(h: SpectrumHold, frame: number): number {
+    return frame < 0 ? NaN : (frame * h.hopLength + h.frameLength / 2 + this.skip) / this.fsc - this.delayS;
+  }
+
   private holdSpectra(): HoldSpectra {
     const h = this.hold.finish();
     const n = h.fftLength;
@@ -429,11 +441,14 @@ export class WholeSpanAccumulator {
       maxHoldDbfs[i] = powerToDb(h.maxHoldFs2[i] as number);
       averageDbfs[i] = powerToDb(h.averageFs2[i] as number);
       const frame = h.maxFrame[i] as number;
-      maxTimeS[i] = frame < 0 ? NaN : (frame * h.hopLength + h.frameLength / 2 + this.skip) / this.fsc - this.delayS;
+      maxTimeS[i] = this.frameTimeS(h, frame);
       if ((h.maxHoldFs2[i] as number) > (h.maxHoldFs2[best] as number)) best = i;
     }
     const peakTime = maxTimeS[best] as number;
+    const banded = this.options.referenceBandHz !== undefined && h.bandPeakFrame >= 0;
     return {
+      bandPeakDbfs: banded ? powerToDb(h.bandPeakFs2) : null,
+      bandPeakTimeS: banded ? this.frameTimeS(h, h.bandPeakFrame) : null,
       frequencyHz, maxHoldDbfs, averageDbfs, maxTimeS, resolutionHz: h.resolutionHz, frameLength: h.frameLength, frameCount: h.frameCount,
       peakDbfs: maxHoldDbfs[best] as number, peakFrequencyHz: frequencyHz[best] as number, peakTimeS: Number.isNaN(peakTime) ? null : peakTime,
       linear: h,

@@ -13,7 +13,11 @@
  * Zero padding leaves each bin the DTFT of the windowed frame at k·fs/N: the padding only
  * interpolates between the bins of length L.
  *
- * Beside each bin's maximum the accumulator keeps the frame it came from. Memory: four arrays
+ * Beside each bin's maximum the accumulator keeps the frame it came from. With `bandHz` it also
+ * keeps the largest power any one frame holds within ±bandHz/2 of 0 Hz, integrated over the
+ * bins, P_m = Σ_k S_m[k]·(fs/N)/RBW (density S/RBW times the bin spacing), and that frame's
+ * number: the reference "highest emission in a resolution bandwidth as wide as the band".
+ * Memory: four arrays
  * of N doubles and the transform's two buffers, fixed at construction.
  */
 import { fftPlan, toCentredOrder, type FftPlan } from "./fft.js";
@@ -29,6 +33,8 @@ export interface SpectrumHoldOptions {
   readonly window?: WindowName;
   /** Sample rate fs, Hz. */
   readonly sampleRateHz: number;
+  /** Width of a band centred on 0 Hz whose per-frame integrated power's maximum is kept (module comment). */
+  readonly bandHz?: number;
 }
 
 /** The result, centred order: index i ↔ (i − N/2)·binWidthHz. Powers in FS² within the RBW. */
@@ -49,6 +55,9 @@ export interface SpectrumHold {
   readonly maxHoldFs2: Float64Array;
   /** The frame number m (start m·H) of each bin's maximum; −1 where no frame was seen. */
   readonly maxFrame: Float64Array;
+  /** With `bandHz`: the largest per-frame power within the band, FS², and its frame (−1 without). */
+  readonly bandPeakFs2: number;
+  readonly bandPeakFrame: number;
 }
 
 /**
@@ -63,7 +72,11 @@ export function holdFrameLength(resolutionHz: number, sampleRateHz: number): num
 
 /** Streams blocks into a max-hold and average spectrum (module comment). */
 export class SpectrumHoldAccumulator {
-  private readonly options: Required<SpectrumHoldOptions>;
+  private readonly options: Required<Omit<SpectrumHoldOptions, "bandHz">>;
+  /** Bins k ≤ bandBins and k ≥ N − bandBins lie in the band; −1 without one. */
+  private readonly bandBins: number;
+  private bandPeak = 0;
+  private bandPeakAt = -1;
   private readonly grid: FrameGrid;
   private readonly plan: FftPlan;
   private readonly windowValues: Float64Array;
@@ -90,6 +103,9 @@ export class SpectrumHoldAccumulator {
     this.sum = new Float64Array(n);
     this.max = new Float64Array(n);
     this.maxAt = new Float64Array(n).fill(-1);
+    const band = options.bandHz;
+    if (band !== undefined && !(band > 0 && Number.isFinite(band))) throw new RangeError(`bandHz ${band} is not a positive finite width`);
+    this.bandBins = band === undefined ? -1 : Math.min(n / 2 - 1, Math.floor(band / 2 / (sampleRateHz / n)));
   }
 
   /** The lengths of every array the accumulator holds (fixed at construction). */
@@ -114,13 +130,20 @@ export class SpectrumHoldAccumulator {
   private addFrame(frame: number): void {
     const x = this.output;
     const n = this.sum.length;
+    const b = this.bandBins;
+    let band = 0;
     for (let k = 0; k < n; k++) {
       const p = (x[2 * k] as number) ** 2 + (x[2 * k + 1] as number) ** 2;
       this.sum[k] = (this.sum[k] as number) + p;
+      if (k <= b || k >= n - b) band += p;
       if (p > (this.max[k] as number)) {
         this.max[k] = p;
         this.maxAt[k] = frame;
       }
+    }
+    if (b >= 0 && band > this.bandPeak) {
+      this.bandPeak = band;
+      this.bandPeakAt = frame;
     }
   }
 
@@ -132,10 +155,13 @@ export class SpectrumHoldAccumulator {
     for (const v of this.windowValues) s1 += v;
     const scale = 1 / (s1 * s1);
     const m = this.frames;
+    const resolutionHz = (enbwBins(this.windowValues) * sampleRateHz) / frameLength;
     return {
       frameLength, hopLength, fftLength: n, sampleRateHz, window,
       binWidthHz: sampleRateHz / n,
-      resolutionHz: (enbwBins(this.windowValues) * sampleRateHz) / frameLength,
+      resolutionHz,
+      bandPeakFs2: this.bandPeak * scale * (sampleRateHz / n / resolutionHz),
+      bandPeakFrame: this.bandPeakAt,
       frameCount: m,
       averageFs2: toCentredOrder(this.sum, m > 0 ? scale / m : 0),
       maxHoldFs2: toCentredOrder(this.max, scale),

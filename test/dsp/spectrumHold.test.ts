@@ -38,6 +38,34 @@ describe("SpectrumHoldAccumulator(options)", () => {
     expect(mean / ((1.5 / 160) * 1)).toBeLessThan(1.01);
   });
 
+  it("keeps the highest per-frame power within ±bandHz/2: a tone of amplitude A reads A² (Parseval over the frame), a louder frame-long burst is the maximum, a tone outside the band does not count", () => {
+    const fs = 32_000;
+    const n = 64_000;
+    const l = 160;
+    // Amplitude 0.5 at 1.3 kHz (off-bin), a burst of amplitude 1 over samples 40 000–41 600 (10 frames), a 0.9 tone at 9 kHz outside a 6 kHz band.
+    const iq = complexTone(n, 0.5, 1300, fs);
+    const loud = complexTone(n, 0.5, 1300, fs);
+    const outside = complexTone(n, 0.9, 9000, fs);
+    for (let k = 0; k < n; k++) {
+      const burst = k >= 40_000 && k < 41_600 ? 2 : 1;
+      iq[2 * k] = (loud[2 * k] as number) * burst + (outside[2 * k] as number);
+      iq[2 * k + 1] = (loud[2 * k + 1] as number) * burst + (outside[2 * k + 1] as number);
+    }
+    const acc = new SpectrumHoldAccumulator({ frameLength: l, sampleRateHz: fs, bandHz: 6000 });
+    acc.push(iq, 0);
+    const h = acc.finish();
+    // Σ_k |X_k|²/(N·Σw²) = Σ|x·w|²/Σw² = A² for a complex tone (Parseval; REFERENCES.md §8 spectrum scaling);
+    // the Hann leakage of the 9 kHz tone 6 kHz away (over 30 bins at fs/L) into the band is below −100 dB.
+    expect(Math.abs(10 * Math.log10(h.bandPeakFs2 / 1))).toBeLessThan(0.05);
+    const startS = (h.bandPeakFrame * h.hopLength) / fs;
+    expect(startS).toBeGreaterThanOrEqual(40_000 / fs);
+    expect(startS + l / fs).toBeLessThanOrEqual(41_600 / fs);
+    const quiet = new SpectrumHoldAccumulator({ frameLength: l, sampleRateHz: fs, bandHz: 6000 });
+    quiet.push(iq.subarray(0, 2 * 30_000), 0);
+    expect(Math.abs(10 * Math.log10(quiet.finish().bandPeakFs2 / 0.25))).toBeLessThan(0.05);
+    expect(() => new SpectrumHoldAccumulator({ frameLength: l, sampleRateHz: fs, bandHz: -1 })).toThrow(RangeError);
+  });
+
   it("gives the same spectra and maxima's frames whatever the blocks (block contract, frameGrid.ts)", () => {
     const fs = 8000;
     const n = 30_000;
