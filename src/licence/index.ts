@@ -1,2 +1,11 @@
 // The public surface of src/licence: re-exports only.
+export {
+  LICENCE_FIELDS, parseLicence, isLicenceField, type Licence, type MaskDetector, type MaskPoints, type MaskReference,
+} from "./licence.js";
 export { parseDesignator, type ParsedDesignator } from "./designator.js";
+export {
+  RULE_MASK_NAMES, licenceMask, pointMask, maskPointsProblem, ruleMaskReference,
+  mask90210B, mask90210C, mask90210D, mask90210E, mask90210G, mask90210H, mask90210I, mask80211F, mask73317,
+  type Mask,
+} from "./masks.js";
+export { jsonSyntaxProblem, type JsonSyntaxProblem } from "./jsonSyntax.js";
