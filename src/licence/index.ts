@@ -9,3 +9,4 @@ export {
   type Mask,
 } from "./masks.js";
 export { jsonSyntaxProblem, type JsonSyntaxProblem } from "./jsonSyntax.js";
+export { decide, worstDecision, type Decision, type DecisionResult } from "./decision.js";
