@@ -10,3 +10,6 @@ export {
 } from "./masks.js";
 export { jsonSyntaxProblem, type JsonSyntaxProblem } from "./jsonSyntax.js";
 export { decide, worstDecision, type Decision, type DecisionResult } from "./decision.js";
+export {
+  listTemplates, findTemplate, templateLimits, parseTemplate, type Template, type TemplateValue, type TemplateStatus,
+} from "./templates.js";

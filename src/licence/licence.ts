@@ -60,10 +60,7 @@ export function isLicenceField(name: string): name is keyof Licence {
  * the wrong type or outside its range (docs/licence.md), or fields that contradict each other.
  */
 export function parseLicence(text: string, fileName: string): Licence {
-  const root = parseJson(text, fileName);
-  if (typeof root !== "object" || root === null || Array.isArray(root)) {
-    throw new LicenceFileError(fileName, "(top level)", `must be a JSON object of licence fields, not ${describeJson(root)}`);
-  }
+  const root = parseJsonObject(text, fileName, "licence fields");
   const licence: Record<string, unknown> = {};
   for (const [name, value] of Object.entries(root)) {
     licence[checkField(name, value, fileName)] = value;
@@ -72,11 +69,14 @@ export function parseLicence(text: string, fileName: string): Licence {
   return licence as Licence;
 }
 
-/** `name` as a licence field once its value obeys the field's rule; else LicenceFileError. */
-export function checkField(name: string, value: unknown, fileName: string): keyof Licence {
-  if (!isLicenceField(name)) throw new LicenceFileError(fileName, name, `is not a licence field${nearestFields(name)}; known: ${LICENCE_FIELDS.join(", ")}`);
+/**
+ * `name` as a licence field once its value obeys the field's rule; else LicenceFileError naming
+ * the field as `label` (a template names it "values.<name>").
+ */
+export function checkField(name: string, value: unknown, fileName: string, label = name): keyof Licence {
+  if (!isLicenceField(name)) throw new LicenceFileError(fileName, label, `is not a licence field${nearestFields(name)}; known: ${LICENCE_FIELDS.join(", ")}`);
   const problem = FIELD_RULES[name](value);
-  if (problem !== null) throw new LicenceFileError(fileName, name, problem);
+  if (problem !== null) throw new LicenceFileError(fileName, label, problem);
   return name;
 }
 
@@ -89,6 +89,15 @@ export function checkCombination(licence: Licence, fileName: string): void {
   if (rule !== null && licence.maskReference !== undefined && licence.maskReference !== rule.reference) {
     throw new LicenceFileError(fileName, "maskReference", `"${licence.maskReference}" contradicts mask ${String(licence.mask)}, whose reference is "${rule.reference}" (${rule.source}); leave maskReference out`);
   }
+}
+
+/** The JSON object in `text` (the contents of `fileName`, holding `what`), or LicenceFileError. */
+export function parseJsonObject(text: string, fileName: string, what: string): Record<string, unknown> {
+  const root = parseJson(text, fileName);
+  if (typeof root !== "object" || root === null || Array.isArray(root)) {
+    throw new LicenceFileError(fileName, "(top level)", `must be a JSON object of ${what}, not ${describeJson(root)}`);
+  }
+  return root as Record<string, unknown>;
 }
 
 function parseJson(text: string, fileName: string): unknown {
