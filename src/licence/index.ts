@@ -13,3 +13,4 @@ export { decide, worstDecision, type Decision, type DecisionResult } from "./dec
 export {
   listTemplates, findTemplate, templateLimits, parseTemplate, type Template, type TemplateValue, type TemplateStatus,
 } from "./templates.js";
+export { mergeLicences, type MergedLicence, type FieldOrigin, type Origin } from "./merge.js";
