@@ -14,3 +14,4 @@ export {
   listTemplates, findTemplate, templateLimits, parseTemplate, type Template, type TemplateValue, type TemplateStatus,
 } from "./templates.js";
 export { mergeLicences, type MergedLicence, type FieldOrigin, type Origin } from "./merge.js";
+export { readLicenceFile, LICENCE_FILE_MAX_BYTES } from "./readLicenceFile.js";
