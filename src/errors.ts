@@ -51,6 +51,22 @@ export class ParameterError extends IqauditError {
 }
 
 /**
+ * A licence file (or a bundled licence template) that cannot be used: names the file, the field
+ * ("(file)" when the file is not JSON at all) and the rule it breaks, in one line:
+ * `licence.json: field maxDeviationHz: must be a number > 0 (Hz), not "5k"`.
+ */
+export class LicenceFileError extends IqauditError {
+  readonly file: string;
+  readonly field: string;
+  constructor(file: string, field: string, rule: string) {
+    super("licence_file", file, `field ${field}: ${rule}`);
+    this.name = "LicenceFileError";
+    this.file = file;
+    this.field = field;
+  }
+}
+
+/**
  * An output that cannot be written (a full disk, a folder that is not ours to replace, stdout
  * closed on a full device). `target` is the path the user gave (or "stdout"), never a temporary name.
  */
