@@ -23,6 +23,12 @@ import { surveyMarkdown } from "./report/index.js";
 import { MEASURE_MODES, type MeasureMode } from "./analysis/measureEmission.js";
 import { parseOutPath, writeStdout } from "./cli/stdout.js";
 import { removeTemporaries } from "./report/index.js";
+import { checkCommand } from "./commands/check.js";
+import { checkText } from "./report/checkText.js";
+import { templateListText } from "./licence/index.js";
+
+/** Exit code of a command that ran: 1 when `check` found a term failed (interface.md). */
+let ranExitCode = 0;
 
 interface GlobalFlags {
   quiet?: boolean;
@@ -37,8 +43,9 @@ function program(): Command {
   const root = new Command("iqaudit")
     .description(
       "Measure radio emissions from IQ captures (raw cu8/ci8/ci16/cf32/cf64, WAV incl. RF64, SigMF): " +
-        "what the file is and whether it is healthy, and its spectrogram. Licence checks, triage of unknown " +
-        "emissions and archived reports follow in later versions.",
+        "what the file is and whether it is healthy (inspect), the measurement of one emission (measure), " +
+        "a check of a transmitter against its licence (check), triage of every emission of a wideband capture " +
+        "(survey) and its spectrogram. An archive of reports follows in a later version.",
     )
     .version(TOOL_VERSION, "-V, --version", "print the version")
     .option("-q, --quiet", "no progress display on stderr (warnings are still shown)")
@@ -213,6 +220,60 @@ function program(): Command {
       },
     );
 
+  addCaptureOptions(
+    root
+      .command("check")
+      .argument("[capture]", "capture file of the transmitter under test")
+      .description(
+        "check one emission against the terms of its licence: carrier frequency error against the tolerance, " +
+          "peak deviation (over every sample, with when it happened), 99 % occupied bandwidth, emission designator, " +
+          "spectral mask (max hold over the whole recording) and adjacent-channel power, each with its margin, " +
+          "uncertainty (k = 2) and an uncertainty-aware decision; exit 0 when every check passes, 1 when any fails",
+      ),
+  )
+    .option("--licence <file.json>", "the licence's terms as JSON (fields: docs/licence.md); over a template's, field by field")
+    .option("--template <name>", "a licence template for a common channel class (see --list-templates)")
+    .option("--assigned <Hz>", "assigned frequency, e.g. 164.975M (over the licence's and the template's)")
+    .option("--list-templates", "list the licence templates with their values, sources and status, and exit")
+    .option("--reference-ppm <u>", "uncertainty of the receiver's frequency reference, ppm (k = 2), carried into the frequency check; without it the report says it is not included")
+    .option("-o, --out <dir>", "write check.json, check.md, mask.png and the measure report (report.json, report.md, figures) into this folder, published whole")
+    .option("--json", "print the check as one JSON document on stdout (schema iqaudit/check/1)")
+    .addHelpText(
+      "after",
+      "\nDecision rule: ILAC-G8:09/2019 §4.2.3 with the guard band w = U: pass, conditional pass (within U below the limit),\n" +
+        "conditional fail (within U above it), fail. The exit code follows simple acceptance (touching the limit passes).\n" +
+        "Licence file, templates and methods: docs/licence.md and docs/methods.md.\n\n" +
+        "Examples\n  iqaudit check launch.wav --licence launch-licence.json -o launch-check\n" +
+        "  iqaudit check ch.cf32 --rate 48k --center 165.1375M --template vhf-land-mobile-12k5 --assigned 165.1375M\n\n" +
+        `${CAUTIONS}\n  - A check here is indicative only, not an accredited test: the licence and local regulation prevail.\n`,
+    )
+    .action(
+      async (
+        path: string | undefined,
+        flags: RawCaptureFlags & { licence?: string; template?: string; assigned?: string; listTemplates?: boolean; referencePpm?: string; out?: string; json?: boolean },
+      ) => {
+        if (flags.listTemplates === true) {
+          await writeStdout(templateListText());
+          return;
+        }
+        if (path === undefined) throw new UsageError("<capture>", "give the capture to check (or --list-templates)");
+        const progress = createProgress(`check ${path}`, !quiet());
+        const result = await checkCommand(path, {
+          capture: captureArgs(flags),
+          licencePath: flags.licence,
+          template: flags.template,
+          assignedHz: flags.assigned === undefined ? undefined : parseQuantity("--assigned", flags.assigned, { unit: "Hz", min: 0 }),
+          referencePpm: flags.referencePpm === undefined ? undefined : parseQuantity("--reference-ppm", flags.referencePpm, { unit: "none", min: 0 }),
+          outDir: flags.out === undefined ? undefined : parseOutPath("--out", flags.out),
+          pass1: { onProgress: progress.onProgress },
+        });
+        progress.done();
+        warn(result.report.warnings);
+        await writeStdout(flags.json === true ? `${JSON.stringify(result.report, null, 2)}\n` : checkText(result.report, result.files));
+        if (result.report.verdict === "fail") ranExitCode = 1;
+      },
+    );
+
   root
     .command("demo")
     .description("write the bundled sample scenario's captures (if missing) and run the tool on them")
@@ -285,8 +346,9 @@ export async function main(argv: readonly string[]): Promise<number> {
     c.configureOutput({ outputError: () => undefined });
   }
   try {
+    ranExitCode = 0;
     await cli.parseAsync(argv as string[], { from: "node" });
-    return 0;
+    return ranExitCode;
   } catch (e) {
     clearProgressLine();
     if (e instanceof CommanderError) {

@@ -46,7 +46,7 @@ async function measured<T>(path: string, options: MeasureOptions, then: (a: Anal
 }
 
 /** Figures first, then report.md, then report.json listing both with their SHA-256. */
-async function writeReportFolder(w: FolderWriter, a: AnalysedCapture, f: EmissionFigures, r: MeasureReport): Promise<MeasureResult> {
+export async function writeReportFolder(w: FolderWriter, a: AnalysedCapture, f: EmissionFigures, r: MeasureReport): Promise<MeasureResult> {
   await writeFigures(w, a, f, r);
   const pngs = w.files().map((file) => file.path);
   await w.write("report.md", measureMarkdown(r, pngs));

@@ -15,3 +15,9 @@ export {
 } from "./templates.js";
 export { mergeLicences, type MergedLicence, type FieldOrigin, type Origin } from "./merge.js";
 export { readLicenceFile, LICENCE_FILE_MAX_BYTES } from "./readLicenceFile.js";
+export {
+  evaluateLicence, type CheckEntry, type CheckInputs, type CheckName, type CheckOutcome, type Figure, type MaskReading, type PeakFigure,
+} from "./checks.js";
+export { checkMask, type MaskPoint, type MaskResult, type MaskSpan, type MaskSpectrum } from "./maskCheck.js";
+export { adjacentChannelPower, type AdjacentChannelInput, type AdjacentChannelResult, type AdjacentSide } from "./adjacentChannel.js";
+export { templateListText } from "./templateList.js";

@@ -11,7 +11,8 @@
 import { checkCombination, LICENCE_FIELDS, type Licence } from "./licence.js";
 import { templateLimits, type Template } from "./templates.js";
 
-export type Origin = "template" | "file";
+/** Where a value came from: a template, the licence file, or a command-line option (`--assigned`). */
+export type Origin = "template" | "file" | "option";
 
 export interface FieldOrigin {
   field: keyof Licence;

@@ -7,7 +7,7 @@ import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { encodeSamples } from "../../src/capture/index.js";
 import { measureCommand } from "../../src/commands/measure.js";
-import { SeededRandom, complexNoise, fmFromAudio, toneAudio } from "../../src/scenario/index.js";
+import { SeededRandom, complexNoise, fmFromAudio, frequencyShift, toneAudio } from "../../src/scenario/index.js";
 
 const dir = mkdtempSync(join(tmpdir(), "iqaudit-measure-whole-"));
 const fs = 48_000;
@@ -30,16 +30,7 @@ function lateWordCapture(): string {
     if (t >= ramp && t < wordS * fs - ramp) env = 1;
     audio[k] = (audio[k] as number) * (1 + (0.9 / 2.5) * env);
   }
-  const { iq } = fmFromAudio(audio, fs, 2500, 0, 0.5);
-  const step = (2 * Math.PI * 3300) / fs;
-  for (let k = 0; k < n; k++) {
-    const c = Math.cos(step * k);
-    const s = Math.sin(step * k);
-    const re = iq[2 * k] as number;
-    const im = iq[2 * k + 1] as number;
-    iq[2 * k] = re * c - im * s;
-    iq[2 * k + 1] = re * s + im * c;
-  }
+  const iq = frequencyShift(fmFromAudio(audio, fs, 2500, 0, 0.5).iq, fs, 3300);
   const noise = new Float64Array(iq.length);
   complexNoise(new SeededRandom(5), noise, 1e-5);
   for (let k = 0; k < iq.length; k++) iq[k] = (iq[k] as number) + (noise[k] as number);
