@@ -9,6 +9,7 @@
  */
 import type { Container, SampleFormat } from "../capture/source.js";
 import type { BurstSchedule } from "./keying.js";
+import type { OverDeviation } from "./overDeviation.js";
 import type { ReceiverModel } from "./receiver.js";
 
 /** How a transmitter is modulated, with its true parameters. `kind` is the report's modulation class. */
@@ -21,7 +22,15 @@ export type TransmitterModulation =
       /** Sub-audible CTCSS tone (REFERENCES.md §10), or null. */
       readonly ctcssToneHz: number | null;
       readonly ctcssDeviationHz: number | null;
-      /** Voice plus tone: both peak together, so the total peak is their sum (both polarities). */
+      /**
+       * One word in which the talker's level rises so that the deviation reaches
+       * overDeviation.peakDeviationHz (overDeviation.ts), or null. Not combined with a CTCSS tone.
+       */
+      readonly overDeviation: OverDeviation | null;
+      /**
+       * The true total peak: voice plus tone (both peak together, so their sum, both polarities),
+       * or the over-deviated word's peak where there is one.
+       */
       readonly peakDeviationHz: number;
     }
   | { readonly kind: "am"; readonly modulatingFrequencyHz: number; readonly depthPercent: number }
@@ -93,7 +102,7 @@ export const TRANSMITTERS: readonly Transmitter[] = [
     nominalFrequencyHz: 164_975_000,
     carrierErrorHz: 180,
     channelSpacingHz: 25_000,
-    modulation: { kind: "fm", audio: "speech-like", voicePeakDeviationHz: 4500, ctcssToneHz: null, ctcssDeviationHz: null, peakDeviationHz: 4500 },
+    modulation: { kind: "fm", audio: "speech-like", voicePeakDeviationHz: 4500, ctcssToneHz: null, ctcssDeviationHz: null, overDeviation: null, peakDeviationHz: 4500 },
   }),
   transmitter({
     id: "pilot",
@@ -101,7 +110,7 @@ export const TRANSMITTERS: readonly Transmitter[] = [
     nominalFrequencyHz: 165_325_000,
     carrierErrorHz: -95,
     channelSpacingHz: 25_000,
-    modulation: { kind: "fm", audio: "speech-like", voicePeakDeviationHz: 3900, ctcssToneHz: 123.0, ctcssDeviationHz: 600, peakDeviationHz: 4500 },
+    modulation: { kind: "fm", audio: "speech-like", voicePeakDeviationHz: 3900, ctcssToneHz: 123.0, ctcssDeviationHz: 600, overDeviation: null, peakDeviationHz: 4500 },
   }),
   transmitter({
     id: "talkback",
