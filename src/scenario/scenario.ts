@@ -4,8 +4,9 @@
  * print this ground truth; tests compare measurements with it.
  *
  * Everything here is invented: the site "Ostrel Bay harbour mast", the transmitters (named by
- * what they do, no call signs), the frequencies (VHF land-mobile range, 25 kHz raster) and the
- * dates. Absolute frequencies are RF, Hz; a capture sees transmitter f at offset f − centerHz.
+ * what they do, no call signs), the frequencies (VHF land-mobile range, 25 kHz raster and one
+ * 12.5 kHz channel) and the dates. Absolute frequencies are RF, Hz; a capture sees transmitter f
+ * at offset f − centerHz.
  */
 import type { Container, SampleFormat } from "../capture/source.js";
 import type { BurstSchedule } from "./keying.js";
@@ -152,9 +153,27 @@ export const TRANSMITTERS: readonly Transmitter[] = [
       burst: { periodS: 0.125, onS: 0.01, firstStartS: 0.0205, rampS: 0.0002 },
     },
   }),
+  transmitter({
+    id: "workboat",
+    label: "harbour workboat channel (12.5 kHz)",
+    nominalFrequencyHz: 165_137_500,
+    carrierErrorHz: 60,
+    channelSpacingHz: 12_500,
+    modulation: {
+      kind: "fm",
+      audio: "speech-like",
+      voicePeakDeviationHz: 2200,
+      ctcssToneHz: null,
+      ctcssDeviationHz: null,
+      // The talker shouts one word late in the recording: a peak of 3.4 kHz, over the ±2.5 kHz
+      // of 12.5 kHz channels (trade practice, REFERENCES.md §4).
+      overDeviation: { startS: 12.5, durationS: 0.8, rampS: 0.02, peakDeviationHz: 3400 },
+      peakDeviationHz: 3400,
+    },
+  }),
 ];
 
-/** The captures `writeScenario` writes (about 6.5 MB together). */
+/** The captures `writeScenario` writes (about 8.4 MB together). */
 export const SCENARIO_CAPTURES: readonly ScenarioCapture[] = [
   {
     id: "survey",
@@ -165,7 +184,7 @@ export const SCENARIO_CAPTURES: readonly ScenarioCapture[] = [
     centerHz: 165_200_000,
     sampleCount: 1_500_000,
     datetime: "2024-09-17T06:40:00Z",
-    description: "site survey, 1 MHz wide: all six transmitters, receiver DC spike and IQ imbalance",
+    description: "site survey, 1 MHz wide: the six site transmitters, receiver DC spike and IQ imbalance",
     noiseDbfsPerHz: -96,
     receiver: { dcI: 0.002, dcQ: -0.0012, gainImbalanceDb: 0.25, phaseImbalanceDeg: 1.5 },
     emissions: [
@@ -225,6 +244,21 @@ export const SCENARIO_CAPTURES: readonly ScenarioCapture[] = [
       { transmitterId: "beacon", powerDbfs: -26 },
     ],
     seed: 0x05731004,
+  },
+  {
+    id: "workboat",
+    fileName: "workboat-channel_165.1375MHz.wav",
+    container: "wav",
+    format: "ci16_le",
+    sampleRateHz: 32_000,
+    centerHz: 165_137_500,
+    sampleCount: 480_000,
+    datetime: "2024-09-17T07:41:00Z",
+    description: "licence check of the workboat channel: FM speech, 15 s, one over-deviated word at 12.5 s",
+    noiseDbfsPerHz: -104,
+    receiver: null,
+    emissions: [{ transmitterId: "workboat", powerDbfs: -8 }],
+    seed: 0x05731005,
   },
 ];
 
