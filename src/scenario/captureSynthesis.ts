@@ -4,10 +4,12 @@
  * is added, then the receiver model (DC, IQ imbalance). Memory: O(block) plus the symbol and bit
  * tables of the digital transmitters (a few ten thousand values).
  */
+import { ParameterError } from "../errors.js";
 import { fmFromAudio, amFromAudio } from "./analogModulation.js";
 import { speechLikeAudio, toneAudio } from "./audio.js";
 import { burstGate, burstStartS, nrzLevels } from "./keying.js";
 import { frequencyShift, tone } from "./oscillator.js";
+import { overDeviationGain } from "./overDeviation.js";
 import { qpskSymbols, rrcPsk } from "./pulseShaping.js";
 import { complexNoise, SeededRandom } from "./random.js";
 import { applyReceiver } from "./receiver.js";
@@ -70,24 +72,8 @@ function emitter(capture: ScenarioCapture, emission: CaptureEmission, seed: numb
       return (start, count) =>
         frequencyShift(amFromAudio(toneAudio(start, count, fs, m.modulatingFrequencyHz), m.depthPercent, a), fs, offsetHz, start);
     }
-    case "fm": {
-      let phase = 0;
-      return (start, count) => {
-        const voice = speechLikeAudio(start, count, fs);
-        const audio = new Float64Array(count);
-        const toneHz = m.ctcssToneHz;
-        const toneDev = m.ctcssDeviationHz ?? 0;
-        // The CTCSS tone has its positive peak at 0.5 s like the voice, so both peaks add.
-        const ctcss = toneHz === null ? null : toneAudio(start, count, fs, toneHz, 0.5);
-        for (let k = 0; k < count; k++) {
-          const c = ctcss === null ? 0 : toneDev * (ctcss[k] as number);
-          audio[k] = (m.voicePeakDeviationHz * (voice[k] as number) + c) / m.peakDeviationHz;
-        }
-        const block = fmFromAudio(audio, fs, m.peakDeviationHz, phase, Math.sqrt(power));
-        phase = block.endPhaseRad;
-        return frequencyShift(block.iq, fs, offsetHz, start);
-      };
-    }
+    case "fm":
+      return fmEmitter(m, fs, offsetHz, Math.sqrt(power));
     case "psk": {
       const rng = new SeededRandom(seed);
       const count = Math.ceil(captureDurationS(capture) * m.symbolRateBd) + 2 * m.spanSymbols + 1;
@@ -106,6 +92,34 @@ function emitter(capture: ScenarioCapture, emission: CaptureEmission, seed: numb
     case "fsk":
       return fskEmitter(capture, m, seed, offsetHz, Math.sqrt(power));
   }
+}
+
+/** Speech-like FM, with an optional CTCSS tone or an over-deviated word (scenario.ts). */
+function fmEmitter(m: Extract<Transmitter["modulation"], { kind: "fm" }>, fs: number, offsetHz: number, amplitude: number): Emitter {
+  if (m.overDeviation !== null && m.ctcssToneHz !== null) {
+    throw new ParameterError("overDeviation", "an over-deviated word with a CTCSS tone is not modelled");
+  }
+  const gain = m.overDeviation === null ? null : overDeviationGain(fs, m.overDeviation, m.voicePeakDeviationHz);
+  let phase = 0;
+  return (start, count) => {
+    const voice = speechLikeAudio(start, count, fs);
+    if (gain !== null) {
+      const g = gain(start, count);
+      for (let k = 0; k < count; k++) voice[k] = (voice[k] as number) * (g[k] as number);
+    }
+    const audio = new Float64Array(count);
+    const toneHz = m.ctcssToneHz;
+    const toneDev = m.ctcssDeviationHz ?? 0;
+    // The CTCSS tone has its positive peak at 0.5 s like the voice, so both peaks add.
+    const ctcss = toneHz === null ? null : toneAudio(start, count, fs, toneHz, 0.5);
+    for (let k = 0; k < count; k++) {
+      const c = ctcss === null ? 0 : toneDev * (ctcss[k] as number);
+      audio[k] = (m.voicePeakDeviationHz * (voice[k] as number) + c) / m.peakDeviationHz;
+    }
+    const block = fmFromAudio(audio, fs, m.peakDeviationHz, phase, amplitude);
+    phase = block.endPhaseRad;
+    return frequencyShift(block.iq, fs, offsetHz, start);
+  };
 }
 
 function fskEmitter(

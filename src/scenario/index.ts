@@ -4,6 +4,8 @@ export type { ToneOptions } from "./oscillator.js";
 export { toneAudio, speechLikeAudio, SPEECH_LIKE_TONES } from "./audio.js";
 export type { GlidingTone, SpeechLikeOptions } from "./audio.js";
 export { fmFromAudio, amFromAudio } from "./analogModulation.js";
+export { overDeviationEnvelope, overDeviationGain } from "./overDeviation.js";
+export type { OverDeviation } from "./overDeviation.js";
 export type { FmBlock } from "./analogModulation.js";
 export { rrcPulse, rrcPsk, qpskSymbols } from "./pulseShaping.js";
 export type { RrcPskOptions } from "./pulseShaping.js";

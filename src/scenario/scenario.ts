@@ -4,11 +4,13 @@
  * print this ground truth; tests compare measurements with it.
  *
  * Everything here is invented: the site "Ostrel Bay harbour mast", the transmitters (named by
- * what they do, no call signs), the frequencies (VHF land-mobile range, 25 kHz raster) and the
- * dates. Absolute frequencies are RF, Hz; a capture sees transmitter f at offset f − centerHz.
+ * what they do, no call signs), the frequencies (VHF land-mobile range, 25 kHz raster and one
+ * 12.5 kHz channel) and the dates. Absolute frequencies are RF, Hz; a capture sees transmitter f
+ * at offset f − centerHz.
  */
 import type { Container, SampleFormat } from "../capture/source.js";
 import type { BurstSchedule } from "./keying.js";
+import type { OverDeviation } from "./overDeviation.js";
 import type { ReceiverModel } from "./receiver.js";
 
 /** How a transmitter is modulated, with its true parameters. `kind` is the report's modulation class. */
@@ -21,7 +23,15 @@ export type TransmitterModulation =
       /** Sub-audible CTCSS tone (REFERENCES.md §10), or null. */
       readonly ctcssToneHz: number | null;
       readonly ctcssDeviationHz: number | null;
-      /** Voice plus tone: both peak together, so the total peak is their sum (both polarities). */
+      /**
+       * One word in which the talker's level rises so that the deviation reaches
+       * overDeviation.peakDeviationHz (overDeviation.ts), or null. Not combined with a CTCSS tone.
+       */
+      readonly overDeviation: OverDeviation | null;
+      /**
+       * The true total peak: voice plus tone (both peak together, so their sum, both polarities),
+       * or the over-deviated word's peak where there is one.
+       */
       readonly peakDeviationHz: number;
     }
   | { readonly kind: "am"; readonly modulatingFrequencyHz: number; readonly depthPercent: number }
@@ -93,7 +103,7 @@ export const TRANSMITTERS: readonly Transmitter[] = [
     nominalFrequencyHz: 164_975_000,
     carrierErrorHz: 180,
     channelSpacingHz: 25_000,
-    modulation: { kind: "fm", audio: "speech-like", voicePeakDeviationHz: 4500, ctcssToneHz: null, ctcssDeviationHz: null, peakDeviationHz: 4500 },
+    modulation: { kind: "fm", audio: "speech-like", voicePeakDeviationHz: 4500, ctcssToneHz: null, ctcssDeviationHz: null, overDeviation: null, peakDeviationHz: 4500 },
   }),
   transmitter({
     id: "pilot",
@@ -101,7 +111,7 @@ export const TRANSMITTERS: readonly Transmitter[] = [
     nominalFrequencyHz: 165_325_000,
     carrierErrorHz: -95,
     channelSpacingHz: 25_000,
-    modulation: { kind: "fm", audio: "speech-like", voicePeakDeviationHz: 3900, ctcssToneHz: 123.0, ctcssDeviationHz: 600, peakDeviationHz: 4500 },
+    modulation: { kind: "fm", audio: "speech-like", voicePeakDeviationHz: 3900, ctcssToneHz: 123.0, ctcssDeviationHz: 600, overDeviation: null, peakDeviationHz: 4500 },
   }),
   transmitter({
     id: "talkback",
@@ -143,9 +153,27 @@ export const TRANSMITTERS: readonly Transmitter[] = [
       burst: { periodS: 0.125, onS: 0.01, firstStartS: 0.0205, rampS: 0.0002 },
     },
   }),
+  transmitter({
+    id: "workboat",
+    label: "harbour workboat channel (12.5 kHz)",
+    nominalFrequencyHz: 165_137_500,
+    carrierErrorHz: 60,
+    channelSpacingHz: 12_500,
+    modulation: {
+      kind: "fm",
+      audio: "speech-like",
+      voicePeakDeviationHz: 2200,
+      ctcssToneHz: null,
+      ctcssDeviationHz: null,
+      // The talker shouts one word late in the recording: a peak of 3.4 kHz, over the ±2.5 kHz
+      // of 12.5 kHz channels (trade practice, REFERENCES.md §4).
+      overDeviation: { startS: 12.5, durationS: 0.8, rampS: 0.02, peakDeviationHz: 3400 },
+      peakDeviationHz: 3400,
+    },
+  }),
 ];
 
-/** The captures `writeScenario` writes (about 6.5 MB together). */
+/** The captures `writeScenario` writes (about 8.4 MB together). */
 export const SCENARIO_CAPTURES: readonly ScenarioCapture[] = [
   {
     id: "survey",
@@ -156,7 +184,7 @@ export const SCENARIO_CAPTURES: readonly ScenarioCapture[] = [
     centerHz: 165_200_000,
     sampleCount: 1_500_000,
     datetime: "2024-09-17T06:40:00Z",
-    description: "site survey, 1 MHz wide: all six transmitters, receiver DC spike and IQ imbalance",
+    description: "site survey, 1 MHz wide: the six site transmitters, receiver DC spike and IQ imbalance",
     noiseDbfsPerHz: -96,
     receiver: { dcI: 0.002, dcQ: -0.0012, gainImbalanceDb: 0.25, phaseImbalanceDeg: 1.5 },
     emissions: [
@@ -216,6 +244,21 @@ export const SCENARIO_CAPTURES: readonly ScenarioCapture[] = [
       { transmitterId: "beacon", powerDbfs: -26 },
     ],
     seed: 0x05731004,
+  },
+  {
+    id: "workboat",
+    fileName: "workboat-channel_165.1375MHz.wav",
+    container: "wav",
+    format: "ci16_le",
+    sampleRateHz: 32_000,
+    centerHz: 165_137_500,
+    sampleCount: 480_000,
+    datetime: "2024-09-17T07:41:00Z",
+    description: "licence check of the workboat channel: FM speech, 15 s, one over-deviated word at 12.5 s",
+    noiseDbfsPerHz: -104,
+    receiver: null,
+    emissions: [{ transmitterId: "workboat", powerDbfs: -8 }],
+    seed: 0x05731005,
   },
 ];
 

@@ -47,7 +47,8 @@ export function emissionComment(tx: Transmitter): string {
       return `QPSK ${m.symbolRateBd} Bd, root-raised-cosine roll-off ${m.rollOff}; ${err}`;
     case "fm":
       return `FM speech, peak deviation ${m.peakDeviationHz} Hz` +
-        (m.ctcssToneHz === null ? "" : `, CTCSS ${m.ctcssToneHz.toFixed(1)} Hz at ${m.ctcssDeviationHz} Hz deviation`) + `; ${err}`;
+        (m.ctcssToneHz === null ? "" : `, CTCSS ${m.ctcssToneHz.toFixed(1)} Hz at ${m.ctcssDeviationHz} Hz deviation`) +
+        (m.overDeviation === null ? "" : `, voice ${m.voicePeakDeviationHz} Hz, one word at ${m.overDeviation.startS} s over-deviated`) + `; ${err}`;
     case "am":
       return `AM ${m.depthPercent} % depth, ${m.modulatingFrequencyHz} Hz tone; ${err}`;
     case "fsk":

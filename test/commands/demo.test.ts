@@ -8,6 +8,7 @@ import { tmpdir } from "node:os";
 import { join, relative } from "node:path";
 import { describe, expect, it } from "vitest";
 import { demoCommand } from "../../src/commands/demo.js";
+import { SCENARIO_CAPTURES } from "../../src/scenario/index.js";
 
 /** Every file below `dir`, as paths relative to it with `/`. */
 function filesBelow(dir: string, base = dir): string[] {
@@ -28,7 +29,8 @@ describe("demoCommand({ outDir })", () => {
     const out = mkdtempSync(join(tmpdir(), "iqaudit-demo-"));
     await demoCommand({ outDir: out });
     const folders = readdirSync(out).filter((n) => n !== "captures" && n !== "SUMMARY.txt" && n !== "site-survey");
-    expect(folders.length).toBe(4); // the four captures of the sample scenario (samples/README.md)
+    // One folder per capture of the sample scenario (samples/README.md), named after its file.
+    expect(folders.sort()).toEqual(SCENARIO_CAPTURES.map((c) => c.fileName.replace(/\.[^.]+$/, "")).sort());
     // The blind survey of the site capture, published whole with survey.json as its manifest.
     expectWhole(join(out, "site-survey"), "survey.json");
     for (const f of folders) {
@@ -36,5 +38,12 @@ describe("demoCommand({ outDir })", () => {
       for (const m of readdirSync(join(out, f)).filter((n) => n.startsWith("measure-"))) expectWhole(join(out, f, m), "report.json");
     }
     expect(readdirSync(out).filter((n) => n.startsWith(".iqaudit-"))).toEqual([]);
+    // The workboat's shouted word shows in its licence-check measurement: the scenario's true peak
+    // is 3.4 kHz at 12.5–13.3 s (samples/README.md). 2 % allows for the 3 kHz audio low-pass
+    // (the speech lies within 443–2419 Hz) and the frequency noise, σ ≈ 14 Hz at 51 dB SNR.
+    const workboat = JSON.parse(readFileSync(join(out, "workboat-channel_165.1375MHz", "measure-workboat", "report.json"), "utf8"));
+    expect(Math.abs(workboat.fm.peakDeviationHz - 3400)).toBeLessThan(0.02 * 3400);
+    expect(workboat.fm.positiveDeviationTimeS).toBeGreaterThanOrEqual(12.5);
+    expect(workboat.fm.positiveDeviationTimeS).toBeLessThanOrEqual(13.3);
   });
 });

@@ -56,3 +56,34 @@ export function meanPower(iq: ArrayLike<number>): number {
   for (let k = 0; k < iq.length; k++) p += (iq[k] as number) ** 2;
   return p / (iq.length >> 1);
 }
+
+/**
+ * FM deviation, Hz, at every sample n ≥ 1: the phase arg x[n] unwrapped and differentiated,
+ * (φ[n] − φ[n−1])·fs/2π, less the carrier's offsetHz. Unwrapping adds the multiple of 2π that
+ * takes each step into (−π, π], so the difference of the unwrapped phase is that wrapped step.
+ * Element 0 is NaN (no earlier sample). Unambiguous while |f| < fs/2.
+ */
+export function unwrappedDeviationHz(iq: ArrayLike<number>, sampleRateHz: number, offsetHz: number): Float64Array {
+  const n = iq.length >> 1;
+  const out = new Float64Array(n);
+  out[0] = Number.NaN;
+  let previous = Math.atan2(iq[1] as number, iq[0] as number);
+  for (let k = 1; k < n; k++) {
+    const phase = Math.atan2(iq[2 * k + 1] as number, iq[2 * k] as number);
+    let step = phase - previous;
+    step -= 2 * Math.PI * Math.round(step / (2 * Math.PI));
+    out[k] = (step * sampleRateHz) / (2 * Math.PI) - offsetHz;
+    previous = phase;
+  }
+  return out;
+}
+
+/** The largest |d[n]| for from ≤ n ≤ to, and its index. */
+export function peakAbs(d: ArrayLike<number>, from: number, to: number): { valueHz: number; index: number } {
+  let best = { valueHz: -Infinity, index: -1 };
+  for (let k = from; k <= to; k++) {
+    const v = Math.abs(d[k] as number);
+    if (v > best.valueHz) best = { valueHz: v, index: k };
+  }
+  return best;
+}

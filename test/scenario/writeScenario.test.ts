@@ -2,14 +2,18 @@ import { createHash } from "node:crypto";
 import { mkdtemp, readdir, readFile, rm, stat } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
+import { fileURLToPath } from "node:url";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import WavDecoder from "wav-decoder";
 import { decodeSamples } from "../../src/capture/index.js";
-import { SCENARIO_CAPTURES, writeScenario } from "../../src/scenario/index.js";
+import { emissionOffsetHz, SCENARIO_CAPTURES, scenarioTransmitter, writeScenario } from "../../src/scenario/index.js";
 import type { ScenarioFile } from "../../src/scenario/index.js";
+import { peakAbs, unwrappedDeviationHz } from "./lines.js";
 
 const sha256 = async (p: string) => createHash("sha256").update(await readFile(p)).digest("hex");
 const capture = (id: string) => SCENARIO_CAPTURES.find((c) => c.id === id)!;
+/** The committed sample files (samples/, kept in git). */
+const SAMPLES_DIR = fileURLToPath(new URL("../../samples/", import.meta.url));
 
 describe("writeScenario(dir)", () => {
   let dirA = "";
@@ -21,7 +25,7 @@ describe("writeScenario(dir)", () => {
     dirB = await mkdtemp(join(tmpdir(), "iqaudit-scenario-b-"));
     files = await writeScenario(dirA);
     await writeScenario(dirB);
-  }, 120_000); // two full generations (~6.5 MB each); a limit, not a timing check
+  }, 120_000); // two full generations (~8.4 MB each); a limit, not a timing check
 
   afterAll(async () => {
     await rm(dirA, { recursive: true, force: true });
@@ -34,10 +38,15 @@ describe("writeScenario(dir)", () => {
     for (const n of names) expect(await sha256(join(dirA, n))).toBe(await sha256(join(dirB, n)));
   });
 
+  it("writes the very bytes of the committed samples/ files (so a change to the scenario that moves them shows here)", async () => {
+    const names = (await readdir(dirA)).sort();
+    for (const n of names) expect(await sha256(join(dirA, n)), n).toBe(await sha256(join(SAMPLES_DIR, n)));
+  });
+
   it("leaves no temporary files and writes samples × frame bytes for raw data", async () => {
     const names = await readdir(dirA);
     expect(names.some((n) => n.includes(".tmp-"))).toBe(false);
-    expect(names.length).toBe(5); // 3 single files and a SigMF pair
+    expect(names.length).toBe(6); // 4 single files and a SigMF pair
     for (const f of files) {
       const c = capture(f.captureId);
       const frame = { cu8: 2, ci16_le: 4, cf32_le: 8 }[c.format as "cu8" | "ci16_le" | "cf32_le"];
@@ -47,7 +56,7 @@ describe("writeScenario(dir)", () => {
 
   it("keeps files of the right size on a second run", async () => {
     const again = await writeScenario(dirA);
-    expect(again.map((f) => f.written)).toEqual([false, false, false, false]);
+    expect(again.map((f) => f.written)).toEqual(SCENARIO_CAPTURES.map(() => false));
   });
 
   it("returns the flags a raw file needs (--format, --rate) and the centre", () => {
@@ -98,6 +107,46 @@ describe("writeScenario(dir)", () => {
     for (const v of x) p += v * v;
     const expected = 10 ** (c.emissions[0]!.powerDbfs / 10) + 10 ** (c.noiseDbfsPerHz / 10) * c.sampleRateHz;
     expect(Math.abs(10 * Math.log10(p / c.sampleCount / expected))).toBeLessThan(0.01);
+  });
+
+  it("workboat (WAV, read by wav-decoder): 2 channels at 32 kHz, 480 000 frames = 15 s", async () => {
+    const c = capture("workboat");
+    const wav = await WavDecoder.decode(await readFile(files.find((f) => f.captureId === "workboat")!.path));
+    expect(wav.sampleRate).toBe(32_000);
+    expect(wav.channelData.length).toBe(2);
+    expect(wav.channelData[0].length).toBe(480_000);
+    expect(wav.channelData[0].length / wav.sampleRate).toBe(15);
+    expect(c.sampleCount).toBe(480_000);
+  });
+
+  it("workboat: the peak deviation from the unwrapped phase of the file is 3.4 kHz in the word at 12.5–13.3 s and 2.2 kHz elsewhere", async () => {
+    const c = capture("workboat");
+    const wav = await WavDecoder.decode(await readFile(files.find((f) => f.captureId === "workboat")!.path));
+    const fs = wav.sampleRate;
+    const iq = new Float64Array(2 * c.sampleCount);
+    for (let k = 0; k < c.sampleCount; k++) {
+      iq[2 * k] = wav.channelData[0][k] as number;
+      iq[2 * k + 1] = wav.channelData[1][k] as number;
+    }
+    const d = unwrappedDeviationHz(iq, fs, emissionOffsetHz(c, scenarioTransmitter("workboat")));
+    // Noise on the frequency: a carrier A with complex noise of variance σn² has phase noise of
+    // variance σn²/(2A²) per sample, so the difference of two samples σf = (fs/2π)·σn/A (small-noise
+    // approximation, common practice). σn² = receiver noise 10^(N/10)·fs plus 16-bit rounding
+    // 2·q²/12 (q = 1/32768): σf ≈ 14.4 Hz here. Any one sample passes 6σf with probability 2e-9, so
+    // the largest of the 25 600 samples in the word, or of the 454 400 outside it (6.5σf: 8e-11
+    // each), stays inside these bounds but for a chance of 1e-4.
+    const amplitude = 10 ** (c.emissions[0]!.powerDbfs / 20);
+    const q = 1 / 32_768;
+    const sigmaN = Math.sqrt(10 ** (c.noiseDbfsPerHz / 10) * fs + (2 * q * q) / 12);
+    const sigmaF = (fs / (2 * Math.PI)) * (sigmaN / amplitude);
+    expect(sigmaF).toBeLessThan(15);
+    const from = 12.5 * fs;
+    const to = 13.3 * fs;
+    const word = peakAbs(d, from, to).valueHz;
+    expect(Math.abs(word - 3400)).toBeLessThanOrEqual(6 * sigmaF);
+    const outside = Math.max(peakAbs(d, 1, from - 1).valueHz, peakAbs(d, to + 1, c.sampleCount - 1).valueHz);
+    expect(outside).toBeLessThanOrEqual(2200 + 6.5 * sigmaF);
+    expect(outside).toBeGreaterThanOrEqual(2200 - 6 * sigmaF);
   });
 
   it("quay (SigMF): the metadata has the core fields of SigMF v1.2.x (REFERENCES.md §9)", async () => {
