@@ -3,7 +3,7 @@
 // Files already present with the right size are kept; delete them to force a rewrite.
 import { dirname } from "node:path";
 import { fileURLToPath } from "node:url";
-import { writeScenario } from "../dist/scenario/index.js";
+import { writeScenario, writeScenarioLicences } from "../dist/scenario/index.js";
 
 const here = dirname(fileURLToPath(import.meta.url));
 const files = await writeScenario(here);
@@ -11,3 +11,4 @@ for (const f of files) {
   const name = f.path.slice(here.length + 1);
   console.log(`${f.written ? "wrote" : "kept "}  ${name}  ${f.flags.join(" ")}`);
 }
+for (const p of await writeScenarioLicences(here)) console.log(`wrote  ${p.slice(here.length + 1)}`);

@@ -78,6 +78,8 @@ export interface MeasureEmissionOptions {
    * the channel itself; not with `extractedChannel`.
    */
   readonly wholeSpan?: Omit<Pass2WholeSpan, "audioBandwidthHz"> | undefined;
+  /** Every input block of the span, for a stage that reads it beside pass 2 (Pass2Options.onInputBlock). */
+  readonly onInputBlock?: ((block: Float32Array) => void) | undefined;
   readonly onProgress?: ((doneSamples: number, totalSamples: number) => void) | undefined;
 }
 
@@ -122,7 +124,7 @@ export async function measureEmission(
   const pass2 = options.extractedChannel
     ?? await runPass2(source, span, {
       offsetHz, bandwidthHz: widthHz, maxSamples: options.maxChannelSamples, onProgress: options.onProgress,
-      wholeSpan: { ...options.wholeSpan, audioBandwidthHz },
+      wholeSpan: { ...options.wholeSpan, audioBandwidthHz }, onInputBlock: options.onInputBlock,
     });
   warnings.push(...pass2.warnings);
   const fsc = pass2.sampleRateHz;

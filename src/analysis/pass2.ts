@@ -30,6 +30,12 @@ export interface Pass2Options {
   readonly onProgress?: ((doneSamples: number, totalSamples: number) => void) | undefined;
   /** Also stream the whole span through the whole-span accumulators (module comment). */
   readonly wholeSpan?: Pass2WholeSpan | undefined;
+  /**
+   * Called with every input block of the span, in order, before pass 2 uses it (the block is
+   * reused after the call): another stage reading the same span in the same read, e.g. a check's
+   * wide channel. Makes pass 2 read the whole span.
+   */
+  readonly onInputBlock?: ((block: Float32Array) => void) | undefined;
 }
 
 export interface Pass2Result {
@@ -69,7 +75,7 @@ export async function runPass2(source: CaptureSource, span: SampleSpan, options:
     offsetHz: options.offsetHz,
     bandwidthHz: options.bandwidthHz,
   });
-  const inputNeeded = whole !== null ? span.sampleCount : Math.min(span.sampleCount, (keep + skip + 2) * extractor.decimation + 64 * extractor.decimation);
+  const inputNeeded = whole !== null || options.onInputBlock !== undefined ? span.sampleCount : Math.min(span.sampleCount, (keep + skip + 2) * extractor.decimation + 64 * extractor.decimation);
   const out = new Float32Array(2 * keep);
   let kept = 0;
   let skipped = 0;
@@ -77,6 +83,7 @@ export async function runPass2(source: CaptureSource, span: SampleSpan, options:
   const blockSamples = options.blockSamples ?? PASS2_DEFAULTS.blockSamples;
   for await (const block of source.blocks({ startSample: span.startSample, sampleCount: inputNeeded }, blockSamples, { reuse: true })) {
     read += block.length / 2;
+    options.onInputBlock?.(block);
     const y = extractor.push(block);
     whole?.push(y);
     let from = 0;
@@ -92,7 +99,7 @@ export async function runPass2(source: CaptureSource, span: SampleSpan, options:
       kept += take;
     }
     options.onProgress?.(read, inputNeeded);
-    if (kept >= keep && whole === null) break;
+    if (kept >= keep && whole === null && options.onInputBlock === undefined) break;
   }
   const warnings: string[] = [];
   const complete = expected <= maxSamples;

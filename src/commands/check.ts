@@ -10,7 +10,8 @@
 import { basename } from "node:path";
 import type { CaptureMeta, SampleSpan } from "../capture/index.js";
 import { LicenceFileError, ParameterError, UsageError } from "../errors.js";
-import type { Pass1Options } from "../analysis/index.js";
+import { WholeSpanAccumulator, type Pass1Options, type WholeSpanFigures } from "../analysis/index.js";
+import { ChannelExtractor } from "../dsp/index.js";
 import { checkMeasureOptions, measureEmission } from "../analysis/measureEmission.js";
 import type { EmissionFigures } from "../analysis/emissionFigures.js";
 import { correctedOffsetHz } from "../analysis/clockCorrection.js";
@@ -122,14 +123,16 @@ async function checked<T>(
   const licence = merged.licence;
   return withAnalysedCapture(path, options.capture, options.pass1 ?? {}, async (a, source) => {
     const placement = placeChannel(a, licence, mask);
+    // The wide channel (mask, adjacent channels) is read in the same pass as measure's own.
+    const wide = wideChannel(a, placement, licence);
     const figures = await measureEmission(source, a.span, a.pass1, {
-      channel: { offsetHz: placement.offsetHz, widthHz: placement.widthHz },
+      channel: { offsetHz: placement.offsetHz, widthHz: placement.measureWidthHz },
       nominalHz: licence.assignedFrequencyHz,
       referencePpm: options.referencePpm,
-      wholeSpan: { maskResolutionHz: licence.maskResolutionHz ?? 300, referenceBandHz: placement.referenceBandHz },
+      onInputBlock: wide.push,
     });
     const measure = buildMeasureReport(a.meta, a.span, a.pass1, figures, a.warnings);
-    const inputs = checkInputs(a, figures, licence, placement);
+    const inputs = checkInputs(a, figures, wide.finish(), licence, placement);
     const outcome = evaluateLicence(licence, mask, inputs);
     const report = buildCheckReport({ merged, mask, outcome, measure, placement, inputs });
     return then({ report, outcome, measure, analysed: a, figures, inputs });
@@ -150,11 +153,31 @@ function checkBefore(meta: CaptureMeta, span: SampleSpan, licence: Licence, opti
   checkMeasureOptions({ referencePpm: options.referencePpm }, meta, span);
 }
 
-/** Where the check's channel sits and how wide it is. */
+/**
+ * The wide channel's whole-span stage, fed with the capture's input blocks as measure reads them:
+ * max-hold and average spectra at the mask's RBW, the peak reference, and the PSD of the adjacent channels.
+ */
+function wideChannel(a: AnalysedCapture, placement: Placement, licence: Licence): { push: (block: Float32Array) => void; finish: () => WholeSpanFigures | null } {
+  const extractor = new ChannelExtractor({ sampleRateHz: a.meta.sampleRateHz, offsetHz: placement.offsetHz, bandwidthHz: placement.widthHz, reuseOutput: true });
+  const acc = new WholeSpanAccumulator(extractor, a.span.sampleCount, {
+    offsetHz: placement.offsetHz, bandwidthHz: placement.widthHz,
+    maskResolutionHz: licence.maskResolutionHz ?? 300, referenceBandHz: placement.referenceBandHz,
+  });
+  let pushed = 0;
+  return {
+    push: (block) => { pushed += block.length; acc.push(extractor.push(block)); },
+    finish: () => (pushed === 0 ? null : acc.finish()),
+  };
+}
+
+/** Where the check's channels sit and how wide they are. */
 export interface Placement {
   /** Channel centre, Hz from the capture centre (as recorded). */
   readonly offsetHz: number;
+  /** The wide channel of the mask and the adjacent channels, Hz. */
   readonly widthHz: number;
+  /** The channel the emission is measured in (deviation, carrier, class, OBW): 1.5 × its band, Hz. */
+  readonly measureWidthHz: number;
   /** The mask's origin in the channel's frequencies, Hz (the assigned frequency; 0 without one). */
   readonly originInChannelHz: number;
   /** Where the channel centre came from. */
@@ -164,9 +187,11 @@ export interface Placement {
 }
 
 /**
- * The channel: centred on the assigned frequency (else the strongest emission), half-width the
- * farthest offset a term needs (the mask's last point or 250 % of the authorised bandwidth plus
- * 10 %, the adjacent channel and its band, 1.5 × the bandwidth), within the capture's ±45 %.
+ * The channels, centred on the assigned frequency (else the strongest emission). The wide one's
+ * half-width is the farthest offset a term needs (the mask's last point or 250 % of the
+ * authorised bandwidth plus 10 %, the adjacent channel and its band, 1.5 × the bandwidth), within
+ * the capture's ±45 %; the emission is measured in 1.5 × its authorised (else designated, else
+ * 12.5 kHz) bandwidth, so that the discriminator sees no more noise than the emission needs.
  */
 function placeChannel(a: AnalysedCapture, licence: Licence, mask: Mask | null): Placement {
   const fs = a.meta.sampleRateHz;
@@ -181,10 +206,27 @@ function placeChannel(a: AnalysedCapture, licence: Licence, mask: Mask | null): 
   // The assigned frequency as the channel sees it: the channel is at the recorded offset; --ppm moves the truth.
   const originInChannelHz = assigned !== undefined && centre !== null ? (assigned - centre) - correctedOffsetHz(a.meta, offsetHz) : 0;
   return {
-    offsetHz, widthHz: 2 * half, originInChannelHz,
+    offsetHz, widthHz: 2 * half, measureWidthHz: measureWidthHz(a, offsetHz, half, licence, band), originInChannelHz,
     centredOn: assigned !== undefined && centre !== null ? "assigned frequency" : "strongest emission",
     referenceBandHz: band,
   };
+}
+
+/**
+ * The emission's channel: 1.5 × the licence's band, or wider when the emission found in pass 1
+ * reaches further (an emission wider than its licence is measured whole), with 20 % room for its
+ * skirts. The emission is looked for within its own channel (± half the spacing, at least
+ * ± 0.75 × the band and 6.25 kHz), regions joined only across 3 bins, so that a neighbour is
+ * not taken for part of it; at most the wide channel.
+ */
+function measureWidthHz(a: AnalysedCapture, offsetHz: number, half: number, licence: Licence, band: number | undefined): number {
+  const floor = a.pass1.noiseFloor.densityPerHz;
+  const own = Math.min(half, Math.max((licence.channelSpacingHz ?? 0) / 2, 0.75 * (band ?? 0), 6250));
+  const region = floor > 0
+    ? locateEmission(a.pass1.psd, floor, { channel: { offsetHz, widthHz: 2 * own }, mergeGapHz: 3 * a.pass1.psd.binWidthHz, dcOffsetDbfs: a.pass1.health.dcOffsetDbfs })
+    : null;
+  const reach = region === null ? 0 : Math.max(Math.abs(region.upperEdgeHz - offsetHz), Math.abs(region.lowerEdgeHz - offsetHz));
+  return Math.min(2 * half, Math.max(1.5 * (band ?? 12_500), 2.4 * reach));
 }
 
 function maskExtentHz(mask: Mask, band: number | undefined): number {
@@ -201,7 +243,7 @@ function strongestOffsetHz(a: AnalysedCapture): number {
 }
 
 /** The figures the checks judge, from the measurement and its whole-span stage. */
-function checkInputs(a: AnalysedCapture, f: EmissionFigures, licence: Licence, placement: Placement): CheckInputs {
+function checkInputs(a: AnalysedCapture, f: EmissionFigures, wide: WholeSpanFigures | null, licence: Licence, placement: Placement): CheckInputs {
   const ws = f.wholeSpan;
   const fm = f.modulation.class === "fm" ? f.fm : null;
   const peak = (side: "positive" | "negative"): PeakFigure => {
@@ -224,8 +266,8 @@ function checkInputs(a: AnalysedCapture, f: EmissionFigures, licence: Licence, p
     designator: f.emission.designator,
     classConfidence: f.modulation.confidence,
     classMethod: f.modulation.method,
-    maskSpectrum: ws === null ? null : maskSpectrum(a, f, licence, placement),
-    adjacent: ws === null ? null : { psd: ws.psd, centreHz: placement.originInChannelHz, noiseDensityPerHz: a.pass1.noiseFloor.densityPerHz },
+    maskSpectrum: wide === null ? null : maskSpectrum(a, f, wide, licence, placement),
+    adjacent: wide === null ? null : { psd: wide.psd, centreHz: placement.originInChannelHz, noiseDensityPerHz: a.pass1.noiseFloor.densityPerHz },
   };
 }
 
@@ -236,13 +278,12 @@ function checkInputs(a: AnalysedCapture, f: EmissionFigures, licence: Licence, p
  * point (k = 2, dB): the reference's, plus the Hann scallop loss at half the bin spacing (a line
  * between two bins reads low by up to it; REFERENCES.md §8, 1.42 dB at half an L-point bin), added.
  */
-function maskSpectrum(a: AnalysedCapture, f: EmissionFigures, licence: Licence, placement: Placement): MaskReading {
-  const ws = f.wholeSpan as NonNullable<EmissionFigures["wholeSpan"]>;
+function maskSpectrum(a: AnalysedCapture, f: EmissionFigures, ws: WholeSpanFigures, licence: Licence, placement: Placement): MaskReading {
   const h = ws.hold;
   const detector = licence.maskDetector ?? "peak-hold";
   const referenceKind = licence.maskReference ?? "carrier";
   const n0 = a.pass1.noiseFloor.densityPerHz;
-  const ref = referenceLevel(f, referenceKind, n0, placement.widthHz);
+  const ref = referenceLevel(f, ws, referenceKind, n0, placement.measureWidthHz);
   const levels = detector === "peak-hold" ? h.maxHoldDbfs : h.averageDbfs;
   const offsetHz = new Float64Array(h.frequencyHz.length);
   const levelDb = new Float64Array(h.frequencyHz.length);
@@ -263,11 +304,11 @@ function maskSpectrum(a: AnalysedCapture, f: EmissionFigures, licence: Licence, 
   };
 }
 
-function referenceLevel(f: EmissionFigures, kind: "carrier" | "peak", n0: number, widthHz: number): { dbfs: number; uncertaintyDb: number; description: string } {
+function referenceLevel(f: EmissionFigures, ws: WholeSpanFigures, kind: "carrier" | "peak", n0: number, widthHz: number): { dbfs: number; uncertaintyDb: number; description: string } {
   const p = f.power.channelDbfs;
   const u = p.uncertainty ?? 0.1;
-  if (kind === "peak" && f.wholeSpan?.hold.bandPeakDbfs != null) {
-    return { dbfs: f.wholeSpan.hold.bandPeakDbfs, uncertaintyDb: u, description: "the highest emission in the authorised bandwidth (per-frame power)" };
+  if (kind === "peak" && ws.hold.bandPeakDbfs !== null) {
+    return { dbfs: ws.hold.bandPeakDbfs, uncertaintyDb: u, description: "the highest emission in the authorised bandwidth (per-frame power)" };
   }
   const total = p.value === null ? NaN : 10 ** (p.value / 10) - n0 * widthHz;
   const dbfs = total > 0 ? 10 * Math.log10(total) : (p.value ?? NaN);
@@ -284,7 +325,7 @@ export function hannScallopDb(nu: number): number {
 /** The measure report's files, then mask.png, check.md and check.json (last, listing the others). */
 async function writeCheckFolder(w: FolderWriter, r: Checked): Promise<CheckResult> {
   await writeReportFolder(w, r.analysed, r.figures, r.measure);
-  if (r.outcome.mask !== null && r.figures.wholeSpan !== null) {
+  if (r.outcome.mask !== null && r.inputs.maskSpectrum !== null) {
     await w.write("mask.png", maskFigure({ report: r.report, outcome: r.outcome, reading: r.inputs.maskSpectrum, captureName: basename(r.analysed.meta.path) }));
   }
   await w.write("check.md", checkMarkdown(r.report, w.files().map((f) => f.path)));

@@ -5,8 +5,12 @@
  * inspect.json, written last, lists every other file of it (the measure-* report folders' files
  * too) with its SHA-256.
  */
-import { basename, join } from "node:path";
-import { SCENARIO_CAPTURES, emissionEdgesHz, scenarioTransmitter, writeScenario, type ScenarioFile } from "../scenario/index.js";
+import { basename, dirname, join } from "node:path";
+import {
+  SCENARIO_CAPTURES, SCENARIO_LICENCES, emissionEdgesHz, scenarioTransmitter, writeScenario, writeScenarioLicences, type ScenarioFile,
+} from "../scenario/index.js";
+import { checkCommand } from "./check.js";
+import type { CheckReport } from "../report/checkReport.js";
 import type { MeasureReport } from "../report/measureReport.js";
 import { inspectCommand } from "./inspect.js";
 import { spectrogramCommand } from "./spectrogram.js";
@@ -35,17 +39,19 @@ export interface DemoSummary {
 export async function demoCommand(options: DemoOptions): Promise<DemoSummary> {
   const capturesDir = join(options.outDir, "captures");
   const scenario = await writeScenario(capturesDir);
+  await writeScenarioLicences(capturesDir);
   const written: string[] = [];
   const warnings: string[] = [];
   const lines: string[] = [`iqaudit demo: ${scenario.length} sample captures in ${capturesDir}`, ""];
   for (const file of scenario) {
     const name = basename(file.path).replace(/\.[^.]+$/, "");
     const dir = join(options.outDir, name);
-    const { report, measured, rows } = await publishFolder(dir, DEMO_FOLDER, (w) => demoFolder(file, w, options));
+    const { report, measured, checked, rows } = await publishFolder(dir, DEMO_FOLDER, (w) => demoFolder(file, w, options));
     const inspectJson = join(dir, "inspect.json");
     const png = join(dir, "spectrogram.png");
     written.push(inspectJson, join(dir, "inspect.txt"), png);
     for (const m of measured) written.push(...m.files);
+    for (const c of checked) written.push(...c.files);
     warnings.push(...report.warnings.map((w) => `${basename(file.path)}: ${w}`));
     for (const m of measured) {
       warnings.push(...m.report.warnings.filter((w) => !report.warnings.includes(w)).map((w) => `${basename(file.path)} ${m.label}: ${w}`));
@@ -58,6 +64,7 @@ export async function demoCommand(options: DemoOptions): Promise<DemoSummary> {
         `at ${report.spectrum.peakDbfs.toFixed(1)} dBFS; clipping ${q.clippingPercent.toFixed(3)} %; ` +
         `IQ ${q.iqGainImbalanceDb.toFixed(2)} dB / ${q.iqPhaseImbalanceDeg.toFixed(2)}°`,
       ...measured.map((m) => `  ${m.label}: ${measuredLine(m.report)}\n    -> ${m.files[m.files.length - 1] ?? ""}`),
+      ...checked.map((c) => `  licence check (${c.against}): ${checkedLine(c.report)}\n    -> ${c.files[c.files.length - 1] ?? ""}`),
       `  -> ${inspectJson}, ${png} (${rows} rows)`,
       "",
     );
@@ -72,12 +79,13 @@ export async function demoCommand(options: DemoOptions): Promise<DemoSummary> {
 /** A demo capture folder: inspect.json is its manifest; folders of an earlier version had no `files` in it. */
 const DEMO_FOLDER: FolderSpec = {
   manifest: "inspect.json",
-  legacyEntry: (name) => name === "inspect.txt" || name === "spectrogram.png" || name.startsWith("measure-"),
+  legacyEntry: (name) => name === "inspect.txt" || name === "spectrogram.png" || name.startsWith("measure-") || name.startsWith("check-"),
 };
 
 interface DemoFolder {
   readonly report: InspectReport;
   readonly measured: readonly MeasuredTransmitter[];
+  readonly checked: readonly CheckedTransmitter[];
   readonly rows: number;
 }
 
@@ -91,8 +99,44 @@ async function demoFolder(file: ScenarioFile, w: FolderWriter, options: DemoOpti
   const s = await spectrogramCommand(file.path, { capture, outputPath: "spectrogram.png", outFolder: w });
   // Each transmitter of the capture, measured in its assigned channel against its nominal frequency.
   const measured = await measureTransmitters(file, capture, w);
+  const checked = await checkTransmitters(file, capture, w);
   await w.write("inspect.json", `${JSON.stringify({ ...report, files: w.files() }, null, 2)}\n`);
-  return { report, measured, rows: s.rows };
+  return { report, measured, checked, rows: s.rows };
+}
+
+interface CheckedTransmitter {
+  readonly against: string;
+  readonly report: CheckReport;
+  readonly files: readonly string[];
+}
+
+/** The capture's transmitters that hold a licence in the scenario (licences.ts), each checked against it into check-<id>/. */
+async function checkTransmitters(file: ScenarioFile, capture: CaptureArgs, folder: FolderWriter): Promise<CheckedTransmitter[]> {
+  const scenario = SCENARIO_CAPTURES.find((c) => c.id === file.captureId);
+  if (scenario === undefined) return [];
+  const out: CheckedTransmitter[] = [];
+  for (const l of SCENARIO_LICENCES) {
+    if (!scenario.emissions.some((e) => e.transmitterId === l.transmitterId)) continue;
+    const licencePath = l.fileName === null ? undefined : join(dirname(file.path), l.fileName);
+    const assigned = l.licence["assignedFrequencyHz"];
+    const r = await checkCommand(file.path, {
+      capture,
+      licencePath,
+      template: l.template ?? undefined,
+      assignedHz: l.template !== null && typeof assigned === "number" ? assigned : undefined,
+      outFolder: folder.sub(`check-${l.transmitterId}`),
+    });
+    out.push({ against: l.template === null ? `licence ${l.fileName ?? ""}` : `template ${l.template}`, report: r.report, files: r.files });
+  }
+  return out;
+}
+
+/** "PASS" or "FAIL: deviation 3.399 kHz against 2.500 kHz at 13.260 s", one line. */
+function checkedLine(r: CheckReport): string {
+  const failed = r.checks.filter((c) => c.pass === false);
+  const verdict = `${r.verdict.toUpperCase()} (decision ${r.decision})`;
+  if (failed.length === 0) return `${verdict}; ${r.checks.filter((c) => c.pass === true).map((c) => c.name).join(", ")} inside the licence`;
+  return `${verdict}: ${failed.map((c) => `${c.name} measured ${typeof c.measured === "number" ? c.measured.toFixed(c.unit === "ppm" ? 3 : c.unit === "dB" ? 1 : 0) : String(c.measured)} ${c.unit ?? ""} against ${String(c.limit)} ${c.unit ?? ""}${c.notes[0] === undefined ? "" : ` (${c.notes[0]})`}`).join("; ")}`;
 }
 
 /**

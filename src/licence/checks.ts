@@ -225,7 +225,7 @@ function maskCheck(mask: Mask, spectrum: MaskReading): { entry: CheckEntry | str
   notes.push(`worst point at ${khz(w.offsetHz)}: ${w.levelDb.toFixed(1)} dB against ${w.allowedDb.toFixed(1)} dB allowed${w.timeS === null ? "" : `, reached at ${w.timeS.toFixed(3)} s`}`);
   for (const v of result.violations) notes.push(`outside the mask from ${khz(v.fromHz)} to ${khz(v.toHz)} (worst margin ${v.worstMarginDb.toFixed(1)} dB)`);
   if (result.unverifiable.length > 0) {
-    notes.push(`${result.unverifiable.length} span(s) not verifiable, where the mask lies below the measurement's noise (${spectrum.noiseDb.toFixed(1)} dB) + 3 dB and the reading is noise: ${result.unverifiable.map((s) => `${khz(s.fromHz)}..${khz(s.toHz)}`).join(", ")}`);
+    notes.push(`${result.unverifiable.length} span(s) not verifiable, where the mask lies below the measurement's noise (${spectrum.noiseDb.toFixed(1)} dB) + 6 dB and the reading is noise: ${result.unverifiable.map((s) => `${khz(s.fromHz)}..${khz(s.toHz)}`).join(", ")}`);
   }
   if (result.uncoveredFromHz !== null) notes.push(`the capture covers offsets up to ${khz(spectrum.coveredHz)}; the mask's limits from ${khz(result.uncoveredFromHz)} outward were not checked`);
   const fields: (keyof Licence)[] = ["mask", "maskReference", "maskDetector", "maskResolutionHz"];

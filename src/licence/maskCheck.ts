@@ -6,10 +6,14 @@
  * negative.
  *
  * Points whose reading is the measurement's own noise cannot show a limit below it: a point is
- * "not verifiable" when the mask allows less than the noise reading + 3 dB and the reading is
- * within 6 dB of the noise (common practice: a display can only confirm a limit some dB above its
- * noise). Such points are left out of the decision and named; a reading well above the noise is
+ * "not verifiable" when the mask allows less than the noise reading + 6 dB and the reading is
+ * within 6 dB of the noise (common practice: a spectrum display confirms a limit only some dB
+ * above its own noise; 6 dB keeps the noise's own spread out of the margin). Such points are left out of the decision and named; a reading well above the noise is
  * judged wherever it is.
+ *
+ * Offsets where the mask requires no attenuation (it allows 0 dB or more: the zone of mask D within
+ * 5.625 kHz, a point mask's [0, 0]) are not judged either: the reference itself lies there (an
+ * unmodulated moment of FM reads 0 dB at the carrier), so a margin there only restates it.
  */
 import type { Mask } from "./masks.js";
 
@@ -56,8 +60,8 @@ export interface MaskResult {
   readonly allowedDb: readonly (number | null)[];
 }
 
-/** Margin below which a reading near the noise is not judged: the noise + 3 dB (module comment). */
-const VERIFY_LIMIT_ABOVE_NOISE_DB = 3;
+/** A limit below the noise + this is not judged where the reading is the noise (module comment). */
+const VERIFY_LIMIT_ABOVE_NOISE_DB = 6;
 /** A reading within this of the noise is the noise. */
 const READING_ABOVE_NOISE_DB = 6;
 
@@ -72,7 +76,7 @@ export function checkMask(mask: Mask, spectrum: MaskSpectrum): MaskResult {
     const f = spectrum.offsetHz[i] as number;
     const a = Math.abs(f) <= spectrum.coveredHz ? mask.allowedDb(Math.abs(f)) : null;
     allowed[i] = a;
-    if (a === null) { violations.close(); unverifiable.close(); continue; }
+    if (a === null || a >= 0) { violations.close(); unverifiable.close(); continue; }
     const level = spectrum.levelDb[i] as number;
     const margin = a - level;
     if (a < spectrum.noiseDb + VERIFY_LIMIT_ABOVE_NOISE_DB && level < spectrum.noiseDb + READING_ABOVE_NOISE_DB) {

@@ -5,6 +5,8 @@
  */
 import type { CheckEntry } from "../licence/index.js";
 import type { CheckReport } from "./checkReport.js";
+import { digitsOf } from "./checkText.js";
+import { formatUncertainty } from "./format.js";
 
 const DECISION_WORDS: Record<string, string> = {
   pass: "pass",
@@ -21,7 +23,7 @@ export function checkMarkdown(r: CheckReport, files: readonly string[]): string 
     `**Verdict: ${r.verdict.toUpperCase()}** (simple acceptance) · decision with the guard band U: **${DECISION_WORDS[r.decision] ?? r.decision}** (ILAC-G8:09/2019 §4.2.3)`,
     "",
     `Capture: ${c.format} at ${c.sampleRateHz} S/s, ${c.durationS.toFixed(2)} s analysed, SHA-256 \`${c.sha256}\`.`,
-    `Channel: ${hz(r.channel.offsetHz)} from the capture centre, ${hz(r.channel.widthHz)} wide, centred on the ${r.channel.centredOn}.`,
+    `Channels, centred on the ${r.channel.centredOn} (${hz(r.channel.offsetHz)} from the capture centre): the emission measured in ${hz(r.channel.measureWidthHz)}, the mask and the adjacent channels read in ${hz(r.channel.widthHz)}.`,
     "",
     "| check | limit | measured | U (k = 2) | margin | margin % | simple acceptance | decision |",
     "| --- | --- | --- | --- | --- | --- | --- | --- |",
@@ -53,8 +55,8 @@ export function checkMarkdown(r: CheckReport, files: readonly string[]): string 
 function verdictRow(e: CheckEntry): string {
   const u = e.unit ?? "";
   const num = (x: number | string | null, digits: number): string => (x === null ? "—" : typeof x === "string" ? x : `${x.toFixed(digits)} ${u}`.trim());
-  const digits = e.unit === "ppm" ? 3 : e.unit === "dB" ? 1 : 0;
-  const unc = e.uncertainty === null ? "not stated" : `± ${e.uncertainty.toFixed(digits === 0 ? 0 : digits)} ${u}`.trim();
+  const digits = digitsOf(e);
+  const unc = e.uncertainty === null ? "not stated" : formatUncertainty(e.uncertainty, digits, u);
   const margin = e.margin === null ? "—" : `${e.margin >= 0 ? "+" : ""}${e.margin.toFixed(digits)} ${u}`.trim();
   const pct = e.marginPercent === null ? "—" : `${e.marginPercent >= 0 ? "+" : ""}${e.marginPercent.toFixed(1)} %`;
   const pass = e.pass === null ? "information" : e.pass ? "pass" : "**fail**";

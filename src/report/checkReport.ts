@@ -16,7 +16,10 @@ export const CHECK_CAUTIONS: readonly string[] = [
 
 export interface CheckPlacementInfo {
   readonly offsetHz: number;
+  /** The wide channel of the mask and the adjacent channels, Hz. */
   readonly widthHz: number;
+  /** The channel the emission itself was measured in, Hz. */
+  readonly measureWidthHz: number;
   readonly centredOn: string;
 }
 
@@ -73,7 +76,7 @@ export function buildCheckReport(input: CheckReportInput): CheckReport {
     decision: outcome.decision,
     checks: outcome.checks,
     licence: { template: merged.template, file: merged.file, values: merged.licence, origins: merged.origins, dropped: merged.dropped },
-    channel: { offsetHz: p.offsetHz, widthHz: p.widthHz, centredOn: p.centredOn },
+    channel: { offsetHz: p.offsetHz, widthHz: p.widthHz, measureWidthHz: p.measureWidthHz, centredOn: p.centredOn },
     mask: maskSection(input),
     skipped: outcome.skipped,
     cautions: CHECK_CAUTIONS,

@@ -4,6 +4,7 @@
  */
 import type { CheckEntry } from "../licence/index.js";
 import type { CheckReport } from "./checkReport.js";
+import { formatUncertainty } from "./format.js";
 
 export function checkText(r: CheckReport, files: readonly string[]): string {
   const lines = [
@@ -23,7 +24,7 @@ function checkLine(e: CheckEntry): string {
   const name = e.name.padEnd(15);
   if (e.kind === "information") return `  ${name} ${formatValue(e.measured, e)} (information; no limit in the licence)`;
   if (e.kind === "match") return `  ${name} ${e.pass ? "pass" : "FAIL"}  licence ${String(e.limit)}, measured ${String(e.measured ?? "none")}  [${e.decision ?? ""}]`;
-  const u = e.uncertainty === null ? "U not stated" : `± ${formatNumber(e.uncertainty, e)}`;
+  const u = e.uncertainty === null ? "U not stated" : formatUncertainty(e.uncertainty, digitsOf(e), "");
   const pct = e.marginPercent === null ? "" : ` (${e.marginPercent >= 0 ? "+" : ""}${e.marginPercent.toFixed(1)} %)`;
   return `  ${name} ${e.pass ? "pass" : "FAIL"}  limit ${formatValue(e.limit, e)}, measured ${formatValue(e.measured, e)} ${u}, margin ${formatNumber(e.margin ?? 0, e, true)}${pct}  [${e.decision ?? ""}]`;
 }
@@ -35,6 +36,10 @@ function formatValue(x: number | string | null, e: CheckEntry): string {
 }
 
 function formatNumber(x: number, e: CheckEntry, signed = false): string {
-  const digits = e.unit === "ppm" ? 3 : e.unit === "dB" ? 1 : 0;
-  return `${signed && x >= 0 ? "+" : ""}${x.toFixed(digits)}`;
+  return `${signed && x >= 0 ? "+" : ""}${x.toFixed(digitsOf(e))}`;
+}
+
+/** Decimals of a check's figures: ppm to 0.001, dB to 0.1, Hz to 1. */
+export function digitsOf(e: CheckEntry): number {
+  return e.unit === "ppm" ? 3 : e.unit === "dB" ? 1 : 0;
 }

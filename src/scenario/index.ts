@@ -26,3 +26,5 @@ export {
   constellation, randomSymbols, qamGrid, CONSTELLATION_KINDS, CONSTELLATION_ORDER,
 } from "./constellations.js";
 export type { ConstellationKind } from "./constellations.js";
+export { SCENARIO_LICENCES, scenarioLicenceText, writeScenarioLicences } from "./licences.js";
+export type { ScenarioLicence } from "./licences.js";

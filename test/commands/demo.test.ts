@@ -36,6 +36,7 @@ describe("demoCommand({ outDir })", () => {
     for (const f of folders) {
       expectWhole(join(out, f), "inspect.json");
       for (const m of readdirSync(join(out, f)).filter((n) => n.startsWith("measure-"))) expectWhole(join(out, f, m), "report.json");
+      for (const c of readdirSync(join(out, f)).filter((n) => n.startsWith("check-"))) expectWhole(join(out, f, c), "check.json");
     }
     expect(readdirSync(out).filter((n) => n.startsWith(".iqaudit-"))).toEqual([]);
     // The workboat's shouted word shows in its licence-check measurement: the scenario's true peak
@@ -45,5 +46,15 @@ describe("demoCommand({ outDir })", () => {
     expect(Math.abs(workboat.fm.peakDeviationHz - 3400)).toBeLessThan(0.02 * 3400);
     expect(workboat.fm.positiveDeviationTimeS).toBeGreaterThanOrEqual(12.5);
     expect(workboat.fm.positiveDeviationTimeS).toBeLessThanOrEqual(13.3);
+    // Licence checks (src/scenario/licences.ts): the launch channel is inside its licence, in its
+    // own capture and in the wideband survey; the workboat fails its deviation term alone, 3.4 kHz
+    // against the 2.5 kHz of 12.5 kHz channels (REFERENCES.md §4, trade practice).
+    type Check = { verdict: string; checks: { name: string; pass: boolean | null }[] };
+    const read = (dir: string, tx: string): Check => JSON.parse(readFileSync(join(out, dir, `check-${tx}`, "check.json"), "utf8")) as Check;
+    expect(read("launch-channel_164.975MHz", "launch").verdict).toBe("pass");
+    expect(read("ostrel-bay-survey_165.2MHz_1Msps", "launch").verdict).toBe("pass");
+    const wb = read("workboat-channel_165.1375MHz", "workboat");
+    expect(wb.verdict).toBe("fail");
+    expect(wb.checks.filter((c) => c.pass === false).map((c) => c.name)).toEqual(["deviation"]);
   });
 });
