@@ -3,10 +3,10 @@
  * 25 kHz-wide FM emission (so later benchmarks can measure it), written block by block and kept
  * outside the repository (reused when present with the right size).
  */
-import { open, rename, stat, mkdir } from "node:fs/promises";
+import { open, rename, stat, mkdir, writeFile } from "node:fs/promises";
 import { join } from "node:path";
 import { tmpdir } from "node:os";
-import { SeededRandom, frequencyShift, qpskSymbols, rrcPsk } from "../scenario/index.js";
+import { SeededRandom, frequencyShift, qpskSymbols, rrcPsk, speechLikeAudio } from "../scenario/index.js";
 
 export const BENCH_RATE_HZ = 2.4e6;
 
@@ -169,4 +169,63 @@ export async function benchSurveyCapture(mebibytes: number): Promise<string> {
   }
   await rename(temp, path);
   return path;
+}
+
+/** The long recording of the check benchmark: 10 minutes at 48 kS/s, ci16, and its licence. */
+export const BENCH_CHECK = { rateHz: 48_000, seconds: 600, centreHz: 164_990_000, assignedHz: 165_000_000, wordStartS: 540, wordS: 0.8, voiceHz: 2200, wordHz: 3400 } as const;
+
+/**
+ * Writes (or reuses) `<benchDir>/bench_check_10min_48ksps.cs16` and its licence
+ * `bench_check.licence.json`: FM speech-like audio at ±2.2 kHz, 10 kHz above the centre, with one
+ * word at minute 9 (540 s) whose audio is raised so that the deviation reaches ±3.4 kHz (20 ms
+ * raised-cosine ramps), at −8 dBFS with −110 dBFS/Hz of noise; built block by block.
+ */
+export async function benchCheckCapture(): Promise<{ path: string; licencePath: string }> {
+  const b = BENCH_CHECK;
+  const dir = benchDir();
+  await mkdir(dir, { recursive: true });
+  const path = join(dir, "bench_check_10min_48ksps.cs16");
+  const licencePath = join(dir, "bench_check.licence.json");
+  await writeFile(licencePath, JSON.stringify({ assignedFrequencyHz: b.assignedHz, frequencyTolerancePpm: 2.5, maxDeviationHz: 2500, authorisedBandwidthHz: 11_250, mask: "cfr-90.210-d", channelSpacingHz: 12_500 }));
+  const total = b.rateHz * b.seconds;
+  const existing = await stat(path).catch(() => null);
+  if (existing !== null && existing.size === 4 * total) return { path, licencePath };
+  const temp = `${path}.tmp-${process.pid}`;
+  const handle = await open(temp, "w");
+  const rng = new SeededRandom(2027);
+  const blockSamples = 1 << 16;
+  const out = new Int16Array(2 * blockSamples);
+  const noise = Math.sqrt((10 ** (-110 / 10) * b.rateHz) / 2);
+  const amplitude = 10 ** (-8 / 20);
+  const step = (2 * Math.PI * b.voiceHz) / b.rateHz;
+  const offset = (2 * Math.PI * (b.assignedHz - b.centreHz)) / b.rateHz;
+  let phase = 0;
+  try {
+    for (let n = 0; n < total; n += blockSamples) {
+      const m = Math.min(blockSamples, total - n);
+      const audio = speechLikeAudio(n, m, b.rateHz);
+      const word = speechLikeAudio(n, m, b.rateHz, { peakTimeS: b.wordStartS + 0.15 });
+      for (let k = 0; k < m; k++) {
+        const t = (n + k) / b.rateHz - b.wordStartS;
+        const w = wordWindow(t, b.wordS, 0.02);
+        const a = (1 - w) * (audio[k] as number) + w * (b.wordHz / b.voiceHz) * (word[k] as number);
+        phase += step * a + offset;
+        if (phase > Math.PI) phase -= 2 * Math.PI * Math.ceil((phase - Math.PI) / (2 * Math.PI));
+        out[2 * k] = Math.round(32767 * (amplitude * Math.cos(phase) + noise * rng.gaussian()));
+        out[2 * k + 1] = Math.round(32767 * (amplitude * Math.sin(phase) + noise * rng.gaussian()));
+      }
+      await handle.write(new Uint8Array(out.buffer, 0, 4 * m));
+    }
+  } finally {
+    await handle.close();
+  }
+  await rename(temp, path);
+  return { path, licencePath };
+}
+
+/** 1 over [ramp, length − ramp], raised-cosine ramps at both ends, 0 outside [0, length). */
+function wordWindow(t: number, length: number, ramp: number): number {
+  if (t < 0 || t >= length) return 0;
+  const edge = Math.min(t, length - t);
+  return edge >= ramp ? 1 : 0.5 - 0.5 * Math.cos((Math.PI * edge) / ramp);
 }

@@ -8,6 +8,8 @@ import { runPass1 } from "../analysis/index.js";
 import { measureEmission } from "../analysis/measureEmission.js";
 import { fftPlan } from "../dsp/index.js";
 import { surveyCapture } from "../survey/index.js";
+import { checkCommand } from "../commands/check.js";
+import { BENCH_CHECK } from "./benchData.js";
 
 async function main(): Promise<void> {
   const [mode, path, workersText] = process.argv.slice(2) as [string, string, string | undefined];
@@ -56,6 +58,13 @@ async function main(): Promise<void> {
       analysesS: r.timingS.analyses, emissions: r.detection.emissions.filter((e) => e.artefact === null).length,
     };
     process.stderr.write(`survey classes: ${r.measured.map((m) => `${m.figures.modulation.class}${m.figures.modulation.order ?? ""}`).join(" ")}\n`);
+  } else if (mode === "check") {
+    // check of the 10-minute recording against its licence: pass 1, then one read of both channels.
+    const r = await checkCommand(path, { capture: { format: "ci16_le", sampleRateHz: BENCH_CHECK.rateHz, centerHz: BENCH_CHECK.centreHz }, licencePath: workersText });
+    samples = r.report.report.capture.samples;
+    const d = r.report.checks.find((c) => c.name === "deviation");
+    extra = { peakDeviationHz: typeof d?.measured === "number" ? d.measured : NaN, peakTimeS: r.report.report.fm?.positiveDeviationTimeS ?? NaN };
+    process.stderr.write(`check verdict ${r.report.verdict}; ${d?.notes[0] ?? ""}\n`);
   } else if (mode === "read") {
     const handle = await open(path, "r");
     const buffer = new Uint8Array(8 << 20);

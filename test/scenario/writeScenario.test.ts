@@ -6,7 +6,8 @@ import { fileURLToPath } from "node:url";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import WavDecoder from "wav-decoder";
 import { decodeSamples } from "../../src/capture/index.js";
-import { emissionOffsetHz, SCENARIO_CAPTURES, scenarioTransmitter, writeScenario } from "../../src/scenario/index.js";
+import { emissionOffsetHz, SCENARIO_CAPTURES, scenarioTransmitter, writeScenario, writeScenarioLicences } from "../../src/scenario/index.js";
+import { parseLicence } from "../../src/licence/index.js";
 import type { ScenarioFile } from "../../src/scenario/index.js";
 import { peakAbs, unwrappedDeviationHz } from "./lines.js";
 
@@ -41,6 +42,19 @@ describe("writeScenario(dir)", () => {
   it("writes the very bytes of the committed samples/ files (so a change to the scenario that moves them shows here)", async () => {
     const names = (await readdir(dirA)).sort();
     for (const n of names) expect(await sha256(join(dirA, n)), n).toBe(await sha256(join(SAMPLES_DIR, n)));
+  });
+
+  it("writes the licence files committed in samples/, and each is a valid licence (docs/licence.md)", async () => {
+    const dir = await mkdtemp(join(tmpdir(), "iqaudit-licences-"));
+    const written = await writeScenarioLicences(dir);
+    expect(written.length).toBeGreaterThan(0);
+    for (const p of written) {
+      const name = p.slice(dir.length + 1);
+      const text = await readFile(p, "utf8");
+      expect(text, name).toBe(await readFile(join(SAMPLES_DIR, name), "utf8"));
+      expect(() => parseLicence(text, name)).not.toThrow();
+    }
+    await rm(dir, { recursive: true, force: true });
   });
 
   it("leaves no temporary files and writes samples × frame bytes for raw data", async () => {
