@@ -7,7 +7,7 @@
  */
 import { basename, dirname, join } from "node:path";
 import {
-  SCENARIO_CAPTURES, SCENARIO_LICENCES, emissionEdgesHz, scenarioTransmitter, writeScenario, writeScenarioLicences, type ScenarioFile,
+  SCENARIO_CAPTURES, SCENARIO_LICENCES, emissionEdgesHz, emissionTransmitter, writeScenario, writeScenarioLicences, type ScenarioFile,
 } from "../scenario/index.js";
 import { checkCommand } from "./check.js";
 import type { CheckReport } from "../report/checkReport.js";
@@ -159,7 +159,7 @@ async function measureTransmitters(file: ScenarioFile, capture: CaptureArgs, fol
   if (scenario === undefined) return [];
   const out: MeasuredTransmitter[] = [];
   for (const e of scenario.emissions) {
-    const tx = scenarioTransmitter(e.transmitterId);
+    const tx = emissionTransmitter(e);
     const offsetHz = tx.nominalFrequencyHz - scenario.centerHz;
     // The channel: the emission's own band (as its SigMF annotation gives it) with a 25 % margin,
     // at most the assigned channel spacing.

@@ -13,7 +13,7 @@ import { overDeviationGain } from "./overDeviation.js";
 import { qpskSymbols, rrcPsk } from "./pulseShaping.js";
 import { complexNoise, SeededRandom } from "./random.js";
 import { applyReceiver } from "./receiver.js";
-import { captureDurationS, emissionOffsetHz, scenarioTransmitter } from "./scenario.js";
+import { captureDurationS, emissionOffsetHz, emissionTransmitter } from "./scenario.js";
 import type { CaptureEmission, ScenarioCapture, Transmitter } from "./scenario.js";
 
 /** A sequential source of a capture's samples (interleaved I,Q, full scale 1.0, Float64). */
@@ -57,7 +57,7 @@ export function captureStream(capture: ScenarioCapture): SampleStream {
 type Emitter = (startSample: number, count: number) => Float64Array;
 
 function emitter(capture: ScenarioCapture, emission: CaptureEmission, seed: number): Emitter {
-  const tx = scenarioTransmitter(emission.transmitterId);
+  const tx = emissionTransmitter(emission);
   const fs = capture.sampleRateHz;
   const offsetHz = emissionOffsetHz(capture, tx);
   const power = 10 ** (emission.powerDbfs / 10);

@@ -14,7 +14,7 @@ export type { BurstSchedule } from "./keying.js";
 export { applyReceiver, imageRejectionDb } from "./receiver.js";
 export type { ReceiverModel } from "./receiver.js";
 export {
-  SCENARIO_SITE, TRANSMITTERS, SCENARIO_CAPTURES, scenarioTransmitter, emissionOffsetHz, captureDurationS,
+  SCENARIO_SITE, TRANSMITTERS, SCENARIO_CAPTURES, scenarioTransmitter, emissionTransmitter, emissionOffsetHz, captureDurationS,
 } from "./scenario.js";
 export type { Transmitter, TransmitterModulation, CaptureEmission, ScenarioCapture } from "./scenario.js";
 export { captureStream } from "./captureSynthesis.js";

@@ -52,7 +52,10 @@ export interface Transmitter {
   /** An invented descriptive label. */
   readonly label: string;
   readonly nominalFrequencyHz: number;
-  /** True carrier error, Hz: frequencyHz − nominalFrequencyHz. */
+  /**
+   * True carrier error, Hz: frequencyHz − nominalFrequencyHz. A capture may hear the transmitter
+   * with another (CaptureEmission.carrierErrorHz: its oscillator has drifted between visits).
+   */
   readonly carrierErrorHz: number;
   /** True carrier (or centre) frequency, Hz. */
   readonly frequencyHz: number;
@@ -65,6 +68,12 @@ export interface CaptureEmission {
   readonly transmitterId: string;
   /** Mean power while on, dBFS (0 dBFS = full-scale complex tone, interface.md). */
   readonly powerDbfs: number;
+  /**
+   * True carrier error in this capture, Hz, where it differs from the transmitter's
+   * (Transmitter.carrierErrorHz): the drift of its oscillator between visits. Default: the
+   * transmitter's. Read it through `emissionTransmitter`.
+   */
+  readonly carrierErrorHz?: number;
 }
 
 export interface ScenarioCapture {
@@ -269,9 +278,24 @@ export function scenarioTransmitter(id: string): Transmitter {
   return t;
 }
 
-/** Offset of `transmitter` from the centre of `capture`, Hz (negative below the centre). */
+/**
+ * The transmitter as heard in one capture: its TRANSMITTERS entry with the emission's own
+ * carrier error, and so its own frequencyHz, where the emission gives one.
+ */
+export function emissionTransmitter(emission: CaptureEmission): Transmitter {
+  const tx = scenarioTransmitter(emission.transmitterId);
+  return emission.carrierErrorHz === undefined ? tx : transmitter({ ...tx, carrierErrorHz: emission.carrierErrorHz });
+}
+
+/**
+ * Offset of `transmitter` from the centre of `capture`, Hz (negative below the centre), at its
+ * frequency in that capture (emissionTransmitter) when the capture holds it, else at its
+ * TRANSMITTERS frequency.
+ */
 export function emissionOffsetHz(capture: ScenarioCapture, transmitter: Transmitter): number {
-  return transmitter.frequencyHz - capture.centerHz;
+  const emission = capture.emissions.find((e) => e.transmitterId === transmitter.id);
+  const frequencyHz = emission === undefined ? transmitter.frequencyHz : emissionTransmitter(emission).frequencyHz;
+  return frequencyHz - capture.centerHz;
 }
 
 /** Duration of `capture`, s. */

@@ -2,7 +2,7 @@
  * SigMF metadata for a scenario capture (SigMF v1.2.x, REFERENCES.md §9): the global object,
  * one capture segment and one annotation per emission with its RF edges and label.
  */
-import { emissionOffsetHz, scenarioTransmitter, SCENARIO_SITE } from "./scenario.js";
+import { emissionOffsetHz, emissionTransmitter, SCENARIO_SITE } from "./scenario.js";
 import type { ScenarioCapture, Transmitter } from "./scenario.js";
 
 /** The SigMF version written into core:version. */
@@ -61,7 +61,7 @@ export function emissionComment(tx: Transmitter): string {
 /** The .sigmf-meta document of `capture` (a plain JSON object). */
 export function sigmfMetadata(capture: ScenarioCapture): object {
   const annotations = capture.emissions.map((e) => {
-    const tx = scenarioTransmitter(e.transmitterId);
+    const tx = emissionTransmitter(e);
     const edges = emissionEdgesHz(tx);
     return {
       "core:sample_start": 0,
