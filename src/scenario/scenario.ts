@@ -182,7 +182,7 @@ export const TRANSMITTERS: readonly Transmitter[] = [
   }),
 ];
 
-/** The captures `writeScenario` writes (about 8.4 MB together). */
+/** The captures `writeScenario` writes (about 9.2 MB together). */
 export const SCENARIO_CAPTURES: readonly ScenarioCapture[] = [
   {
     id: "survey",
@@ -268,6 +268,22 @@ export const SCENARIO_CAPTURES: readonly ScenarioCapture[] = [
     receiver: null,
     emissions: [{ transmitterId: "workboat", powerDbfs: -8 }],
     seed: 0x05731005,
+  },
+  {
+    id: "launch-revisit",
+    fileName: "launch-channel-revisit_164.975MHz.wav",
+    container: "wav",
+    format: "ci16_le",
+    sampleRateHz: 48_000,
+    centerHz: 164_975_000,
+    sampleCount: 192_000,
+    datetime: "2025-03-18T09:20:00Z",
+    description: "second visit to the harbour launch channel, six months later: FM speech, 4 s, the carrier 80 Hz higher",
+    noiseDbfsPerHz: -100,
+    receiver: null,
+    // The launch's oscillator has aged: +260 Hz (+1.58 ppm) against +180 Hz at the first visit.
+    emissions: [{ transmitterId: "launch", powerDbfs: -8, carrierErrorHz: 260 }],
+    seed: 0x05731006,
   },
 ];
 

@@ -87,3 +87,16 @@ export function peakAbs(d: ArrayLike<number>, from: number, to: number): { value
   }
   return best;
 }
+
+/**
+ * The pauses of the speech-like audio (audio.ts): syllables 0.2 s long centred every 0.25 s on
+ * 0.5 s, so the audio is exactly 0 for t in [0.10, 0.15] s modulo 0.25 s. Each window keeps 5 ms
+ * clear of the syllables on either side; as sample ranges [from, to] at rate fs.
+ */
+export function pauseWindows(fs: number, durationS: number): { from: number; to: number }[] {
+  const out: { from: number; to: number }[] = [];
+  for (let startS = 0.105; startS + 0.04 < durationS; startS += 0.25) {
+    out.push({ from: Math.round(startS * fs), to: Math.round((startS + 0.04) * fs) });
+  }
+  return out;
+}

@@ -8,13 +8,38 @@ import WavDecoder from "wav-decoder";
 import { decodeSamples } from "../../src/capture/index.js";
 import { emissionOffsetHz, SCENARIO_CAPTURES, scenarioTransmitter, writeScenario, writeScenarioLicences } from "../../src/scenario/index.js";
 import { parseLicence } from "../../src/licence/index.js";
-import type { ScenarioFile } from "../../src/scenario/index.js";
-import { peakAbs, unwrappedDeviationHz } from "./lines.js";
+import type { ScenarioCapture, ScenarioFile } from "../../src/scenario/index.js";
+import { instantaneousFrequencyHz, pauseWindows, peakAbs, unwrappedDeviationHz } from "./lines.js";
 
 const sha256 = async (p: string) => createHash("sha256").update(await readFile(p)).digest("hex");
 const capture = (id: string) => SCENARIO_CAPTURES.find((c) => c.id === id)!;
 /** The committed sample files (samples/, kept in git). */
 const SAMPLES_DIR = fileURLToPath(new URL("../../samples/", import.meta.url));
+
+/** A WAV file read by wav-decoder (the independent reader), as interleaved I,Q. */
+async function wavIq(path: string): Promise<{ sampleRateHz: number; iq: Float64Array }> {
+  const wav = await WavDecoder.decode(await readFile(path));
+  const n = wav.channelData[0].length;
+  const iq = new Float64Array(2 * n);
+  for (let k = 0; k < n; k++) {
+    iq[2 * k] = wav.channelData[0][k] as number;
+    iq[2 * k + 1] = wav.channelData[1][k] as number;
+  }
+  return { sampleRateHz: wav.sampleRate, iq };
+}
+
+/**
+ * Noise on the instantaneous frequency of a capture's one emission, Hz, per sample step: a carrier
+ * A with complex noise of variance σn² has phase noise of variance σn²/(2A²) per sample, so the
+ * difference of two samples σf = (fs/2π)·σn/A (small-noise approximation, common practice).
+ * σn² = receiver noise 10^(N/10)·fs plus 16-bit rounding 2·q²/12 (q = 1/32768).
+ */
+function frequencyNoiseHz(c: ScenarioCapture): number {
+  const amplitude = 10 ** (c.emissions[0]!.powerDbfs / 20);
+  const q = 1 / 32_768;
+  const sigmaN = Math.sqrt(10 ** (c.noiseDbfsPerHz / 10) * c.sampleRateHz + (2 * q * q) / 12);
+  return (c.sampleRateHz / (2 * Math.PI)) * (sigmaN / amplitude);
+}
 
 describe("writeScenario(dir)", () => {
   let dirA = "";
@@ -26,7 +51,7 @@ describe("writeScenario(dir)", () => {
     dirB = await mkdtemp(join(tmpdir(), "iqaudit-scenario-b-"));
     files = await writeScenario(dirA);
     await writeScenario(dirB);
-  }, 120_000); // two full generations (~8.4 MB each); a limit, not a timing check
+  }, 120_000); // two full generations (~9.2 MB each); a limit, not a timing check
 
   afterAll(async () => {
     await rm(dirA, { recursive: true, force: true });
@@ -60,7 +85,7 @@ describe("writeScenario(dir)", () => {
   it("leaves no temporary files and writes samples × frame bytes for raw data", async () => {
     const names = await readdir(dirA);
     expect(names.some((n) => n.includes(".tmp-"))).toBe(false);
-    expect(names.length).toBe(6); // 4 single files and a SigMF pair
+    expect(names.length).toBe(7); // 5 single files and a SigMF pair
     for (const f of files) {
       const c = capture(f.captureId);
       const frame = { cu8: 2, ci16_le: 4, cf32_le: 8 }[c.format as "cu8" | "ci16_le" | "cf32_le"];
@@ -123,36 +148,27 @@ describe("writeScenario(dir)", () => {
     expect(Math.abs(10 * Math.log10(p / c.sampleCount / expected))).toBeLessThan(0.01);
   });
 
-  it("workboat (WAV, read by wav-decoder): 2 channels at 32 kHz, 480 000 frames = 15 s", async () => {
-    const c = capture("workboat");
-    const wav = await WavDecoder.decode(await readFile(files.find((f) => f.captureId === "workboat")!.path));
-    expect(wav.sampleRate).toBe(32_000);
+  // The rates and durations samples/README.md states.
+  it.each([
+    ["workboat", 32_000, 480_000, 15],
+    ["launch-revisit", 48_000, 192_000, 4],
+  ])("%s (WAV, read by wav-decoder): 2 channels at %d Hz, %d frames = %d s", async (id, rateHz, frames, durationS) => {
+    const wav = await WavDecoder.decode(await readFile(files.find((f) => f.captureId === id)!.path));
+    expect(wav.sampleRate).toBe(rateHz);
     expect(wav.channelData.length).toBe(2);
-    expect(wav.channelData[0].length).toBe(480_000);
-    expect(wav.channelData[0].length / wav.sampleRate).toBe(15);
-    expect(c.sampleCount).toBe(480_000);
+    expect(wav.channelData[0].length).toBe(frames);
+    expect(wav.channelData[0].length / wav.sampleRate).toBe(durationS);
+    expect(capture(id).sampleCount).toBe(frames);
   });
 
   it("workboat: the peak deviation from the unwrapped phase of the file is 3.4 kHz in the word at 12.5–13.3 s and 2.2 kHz elsewhere", async () => {
     const c = capture("workboat");
-    const wav = await WavDecoder.decode(await readFile(files.find((f) => f.captureId === "workboat")!.path));
-    const fs = wav.sampleRate;
-    const iq = new Float64Array(2 * c.sampleCount);
-    for (let k = 0; k < c.sampleCount; k++) {
-      iq[2 * k] = wav.channelData[0][k] as number;
-      iq[2 * k + 1] = wav.channelData[1][k] as number;
-    }
+    const { sampleRateHz: fs, iq } = await wavIq(files.find((f) => f.captureId === "workboat")!.path);
     const d = unwrappedDeviationHz(iq, fs, emissionOffsetHz(c, scenarioTransmitter("workboat")));
-    // Noise on the frequency: a carrier A with complex noise of variance σn² has phase noise of
-    // variance σn²/(2A²) per sample, so the difference of two samples σf = (fs/2π)·σn/A (small-noise
-    // approximation, common practice). σn² = receiver noise 10^(N/10)·fs plus 16-bit rounding
-    // 2·q²/12 (q = 1/32768): σf ≈ 14.4 Hz here. Any one sample passes 6σf with probability 2e-9, so
-    // the largest of the 25 600 samples in the word, or of the 454 400 outside it (6.5σf: 8e-11
-    // each), stays inside these bounds but for a chance of 1e-4.
-    const amplitude = 10 ** (c.emissions[0]!.powerDbfs / 20);
-    const q = 1 / 32_768;
-    const sigmaN = Math.sqrt(10 ** (c.noiseDbfsPerHz / 10) * fs + (2 * q * q) / 12);
-    const sigmaF = (fs / (2 * Math.PI)) * (sigmaN / amplitude);
+    // Frequency noise σf ≈ 14.4 Hz here (frequencyNoiseHz). Any one sample passes 6σf with
+    // probability 2e-9, so the largest of the 25 600 samples in the word, or of the 454 400 outside
+    // it (6.5σf: 8e-11 each), stays inside these bounds but for a chance of 1e-4.
+    const sigmaF = frequencyNoiseHz(c);
     expect(sigmaF).toBeLessThan(15);
     const from = 12.5 * fs;
     const to = 13.3 * fs;
@@ -161,6 +177,24 @@ describe("writeScenario(dir)", () => {
     const outside = Math.max(peakAbs(d, 1, from - 1).valueHz, peakAbs(d, to + 1, c.sampleCount - 1).valueHz);
     expect(outside).toBeLessThanOrEqual(2200 + 6.5 * sigmaF);
     expect(outside).toBeGreaterThanOrEqual(2200 - 6 * sigmaF);
+  });
+
+  it("launch-revisit: the mean phase advance of the file in the audio's pauses is the carrier, +260 Hz from the centre", async () => {
+    const c = capture("launch-revisit");
+    const { sampleRateHz: fs, iq } = await wavIq(files.find((f) => f.captureId === "launch-revisit")!.path);
+    const f = instantaneousFrequencyHz(iq, fs);
+    const windows = pauseWindows(fs, c.sampleCount / fs);
+    let sumHz = 0;
+    for (const w of windows) sumHz += f.subarray(w.from, w.to).reduce((s, x) => s + x, 0) / (w.to - w.from);
+    const meanHz = sumHz / windows.length;
+    // Each step is a few hundredths of a radian, so a window's steps add up to its end-to-end
+    // phase: its mean is (φ_end − φ_start)·fs/(2π·N), of spread σf/N (frequencyNoiseHz: the two
+    // ends' phase noise, not the N steps'). 16 windows of 1920 steps: σ ≈ 0.006 Hz for the pooled
+    // mean; 6σ bounds it but for a chance of 2e-9.
+    const steps = windows[0]!.to - windows[0]!.from;
+    const sigmaMeanHz = frequencyNoiseHz(c) / steps / Math.sqrt(windows.length);
+    expect(sigmaMeanHz).toBeLessThan(0.01);
+    expect(Math.abs(meanHz - 260)).toBeLessThanOrEqual(6 * sigmaMeanHz);
   });
 
   it("quay (SigMF): the metadata has the core fields of SigMF v1.2.x (REFERENCES.md §9)", async () => {
