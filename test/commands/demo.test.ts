@@ -53,6 +53,22 @@ describe("demoCommand({ outDir })", () => {
     const read = (dir: string, tx: string): Check => JSON.parse(readFileSync(join(out, dir, `check-${tx}`, "check.json"), "utf8")) as Check;
     expect(read("launch-channel_164.975MHz", "launch").verdict).toBe("pass");
     expect(read("ostrel-bay-survey_165.2MHz_1Msps", "launch").verdict).toBe("pass");
+    // The second visit, six months on: the launch's carrier is +260 Hz (samples/README.md), or
+    // 260/164.975e6 = +1.576 ppm, still inside the licence's 5 ppm (47 CFR 90.213, REFERENCES.md §4),
+    // so the check passes. The measurement must find it within its own stated uncertainty (k = 2)
+    // and 0.01 ppm (1.6 Hz; the carrier is found to better than 1 Hz at 50 dB SNR over 4 s).
+    type Measured = { carrier: { errorPpm: number; frequencyHz: number }; uncertainty: Record<string, number | undefined> };
+    const launchReport = (dir: string): Measured => JSON.parse(readFileSync(join(out, dir, "measure-launch", "report.json"), "utf8")) as Measured;
+    const revisit = launchReport("launch-channel-revisit_164.975MHz");
+    const uPpm = revisit.uncertainty["carrier.errorPpm"] as number;
+    expect(uPpm).toBeGreaterThan(0);
+    expect(Math.abs(revisit.carrier.errorPpm - (260 / 164.975e6) * 1e6)).toBeLessThanOrEqual(Math.min(uPpm, 0.01));
+    expect(read("launch-channel-revisit_164.975MHz", "launch").verdict).toBe("pass");
+    // The drift between the visits, 260 − 180 = 80 Hz, within the two uncertainties in quadrature
+    // (independent noise; the same audio in both, so what it does to the estimate cancels).
+    const firstVisit = launchReport("launch-channel_164.975MHz");
+    const uDriftHz = Math.hypot(revisit.uncertainty["carrier.frequencyHz"] as number, firstVisit.uncertainty["carrier.frequencyHz"] as number);
+    expect(Math.abs(revisit.carrier.frequencyHz - firstVisit.carrier.frequencyHz - 80)).toBeLessThanOrEqual(uDriftHz);
     const wb = read("workboat-channel_165.1375MHz", "workboat");
     expect(wb.verdict).toBe("fail");
     expect(wb.checks.filter((c) => c.pass === false).map((c) => c.name)).toEqual(["deviation"]);
