@@ -55,8 +55,8 @@ describe("demoCommand({ outDir })", () => {
     expect(read("ostrel-bay-survey_165.2MHz_1Msps", "launch").verdict).toBe("pass");
     // The second visit, six months on: the launch's carrier is +260 Hz (samples/README.md), or
     // 260/164.975e6 = +1.576 ppm, still inside the licence's 5 ppm (47 CFR 90.213, REFERENCES.md §4),
-    // so the check passes. The measurement must find it within its own stated uncertainty (k = 2)
-    // and 0.01 ppm (1.6 Hz; the carrier is found to better than 1 Hz at 50 dB SNR over 4 s).
+    // so the check passes. The measurement must find it within its own stated uncertainty (k = 2),
+    // and that no looser than 0.01 ppm (1.6 Hz).
     type Measured = { carrier: { errorPpm: number; frequencyHz: number }; uncertainty: Record<string, number | undefined> };
     const launchReport = (dir: string): Measured => JSON.parse(readFileSync(join(out, dir, "measure-launch", "report.json"), "utf8")) as Measured;
     const revisit = launchReport("launch-channel-revisit_164.975MHz");
