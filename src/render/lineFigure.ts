@@ -1,8 +1,10 @@
 import type { AxisQuantity } from "./axes.js";
 import { encodePng } from "./encodePng.js";
-import { checkFigureSize, drawTitleBlock, fitText, PAGE_STYLE, pagePaddingPx, textScaleFor } from "./figureFrame.js";
+import { checkFigureSize, drawTitleBlock, PAGE_STYLE, textScaleFor } from "./figureFrame.js";
 import { textHeightPx, textWidthPx } from "./font.js";
+import { drawLegendRow, type LegendItem } from "./legendRow.js";
 import { drawPlotArea } from "./plotArea.js";
+import { drawPolyline } from "./polyline.js";
 import { RgbaCanvas, type Rgb } from "./raster.js";
 import { drawMarkerLines } from "./markerLines.js";
 import type { FigureLayout } from "./spectrogramFigure.js";
@@ -141,31 +143,12 @@ export function renderLineFigure(input: LineFigureInput): {
   if (!(xMax > xMin) || !(yMax > yMin)) throw new RangeError(`renderLineFigure: axis range must have max > min`);
 
   const s = textScaleFor(widthPx, heightPx);
-  const pad = pagePaddingPx(s);
-  const lineH = textHeightPx(s);
   const canvas = new RgbaCanvas(widthPx, heightPx, PAGE_STYLE.pageColour);
-  let top = drawTitleBlock(canvas, input.title, input.subtitle, s) + 4 * s;
-  const colours = input.series.map((series, i) => series.colour ?? SERIES_COLOURS[i % SERIES_COLOURS.length] ?? MARKER_COLOUR);
+  const top = drawTitleBlock(canvas, input.title, input.subtitle, s) + 4 * s;
+  const colours = input.series.map((series, i) => series.colour ?? defaultColour(i));
+  const legend = input.series.map((series, i) => lineLegendItem(canvas, series, colours[i] ?? MARKER_COLOUR, s));
 
-  // Legend: a swatch and the label per series, wrapping onto further rows.
-  const swatchPx = 14 * s;
-  let legendX = pad;
-  input.series.forEach((series, i) => {
-    const label = fitText(series.label, widthPx - 2 * pad - swatchPx - 4 * s, s);
-    const itemWidth = swatchPx + 4 * s + textWidthPx(label, s);
-    if (legendX > pad && legendX + itemWidth > widthPx - pad) {
-      legendX = pad;
-      top += lineH + 3 * s;
-    }
-    const colour = colours[i] ?? MARKER_COLOUR;
-    const midY = top + Math.floor((7 * s) / 2);
-    canvas.line(legendX, midY, legendX + swatchPx - 1, midY, colour, series.dashed === true ? { widthPx: 2 * s, dashPx: [4 * s, 3 * s] } : { widthPx: 2 * s });
-    canvas.text(label, legendX + swatchPx + 4 * s, top, PAGE_STYLE.inkColour, { scale: s });
-    legendX += itemWidth + 14 * s;
-  });
-  if (input.series.length > 0) top += lineH;
-
-  const plotTop = top + 8 * s;
+  const plotTop = drawLegendRow(canvas, legend, top, s) + 8 * s;
   const { plot, xOf, yOf, px, py } = drawPlotArea(canvas, {
     x: { name: input.x.name, quantity: input.x.quantity, min: xMin, max: xMax },
     y: { name: input.y.name, quantity: input.y.quantity, min: yMin, max: yMax },
@@ -183,19 +166,7 @@ export function renderLineFigure(input: LineFigureInput): {
   input.series.forEach((series, i) => {
     const colour = colours[i] ?? MARKER_COLOUR;
     const style = series.dashed === true ? { widthPx: s, dashPx: [5 * s, 3 * s] as const } : { widthPx: s };
-    let prev: [number, number] | null = null;
-    for (let k = 0; k < series.xValues.length; k++) {
-      const x = series.xValues[k] ?? NaN;
-      const y = series.yValues[k] ?? NaN;
-      if (!Number.isFinite(x) || !Number.isFinite(y)) {
-        prev = null;
-        continue;
-      }
-      const point: [number, number] = [px(x), py(y)];
-      if (prev === null) canvas.line(point[0], point[1], point[0], point[1], colour, style);
-      else canvas.line(prev[0], prev[1], point[0], point[1], colour, style);
-      prev = point;
-    }
+    drawPolyline(canvas, series.xValues, series.yValues, colour, style, px, py);
   });
 
   drawMarkerLines(canvas, plot, input.markers ?? [], px, py, s);
@@ -203,6 +174,16 @@ export function renderLineFigure(input: LineFigureInput): {
   canvas.setClip(null);
 
   return { png: encodePng(canvas), layout: { plot }, xOf, yOf };
+}
+
+function defaultColour(index: number): Rgb {
+  return SERIES_COLOURS[index % SERIES_COLOURS.length] ?? MARKER_COLOUR;
+}
+
+// A line series' swatch: a short thick line, dashed when the series is.
+function lineLegendItem(canvas: RgbaCanvas, series: LineSeries, colour: Rgb, s: number): LegendItem {
+  const style = series.dashed === true ? { widthPx: 2 * s, dashPx: [4 * s, 3 * s] as const } : { widthPx: 2 * s };
+  return { label: series.label, drawSwatch: (x, midY, widthPx) => canvas.line(x, midY, x + widthPx - 1, midY, colour, style) };
 }
 
 /** A ring at the note's point and its text on a page-coloured patch beside it, kept inside the plot. */
