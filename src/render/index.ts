@@ -75,6 +75,7 @@ export {
   type ShadedSpan,
   type PointNote,
 } from "./lineFigure.js";
+export { pointMarkerHalfPx, type PointSeries } from "./pointSeries.js";
 export { drawMarkerLines } from "./markerLines.js";
 export {
   renderConstellation,
