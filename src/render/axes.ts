@@ -1,12 +1,26 @@
 import { FONT_METRICS, textHeightPx, textWidthPx } from "./font.js";
 import type { Rect, Rgb, RgbaCanvas } from "./raster.js";
+import { CALENDAR_STEPS, calendarStepSeconds, calendarTickValues, formatCalendarLabel } from "./calendarTicks.js";
 import { formatTickLabel, nextNiceStep, niceNumber, siScaleForHz, siScaleForSeconds, ticksWithStep, type SiScale } from "./ticks.js";
 
 // The most ticks an axis gets, however long it is.
 const MAX_TICKS = 12;
+// The most ticks a calendar-time axis gets: its labels are long and read one by one.
+const MAX_CALENDAR_TICKS = 10;
 
-/** What an axis measures: hertz and seconds get SI prefixes chosen to fit; `linear` keeps its unit as given. */
-export type AxisQuantity = { readonly kind: "hertz" } | { readonly kind: "seconds" } | { readonly kind: "linear"; readonly unit: string };
+/**
+ * What an axis measures: hertz and seconds get SI prefixes chosen to fit; `linear` keeps its
+ * unit as given; `time-utc` is Unix time (seconds since 1970-01-01T00:00:00Z) with calendar
+ * ticks and ISO 8601 labels in UTC, and the title "name (UTC)".
+ */
+export type AxisQuantity =
+  | { readonly kind: "hertz" }
+  | { readonly kind: "seconds" }
+  | { readonly kind: "linear"; readonly unit: string }
+  | { readonly kind: "time-utc" };
+
+// The quantities whose labels are numbers with an SI or given unit.
+type NumericQuantity = Exclude<AxisQuantity, { readonly kind: "time-utc" }>;
 
 /** One tick: its value in the axis base unit (Hz, s, or the linear unit) and its label text. */
 export interface AxisTick {
@@ -37,11 +51,17 @@ export interface AxisRequest {
   readonly textScale: number;
 }
 
-function scaleFor(quantity: AxisQuantity, min: number, max: number): SiScale {
+function scaleFor(quantity: NumericQuantity, min: number, max: number): SiScale {
   const largest = Math.max(Math.abs(min), Math.abs(max));
   if (quantity.kind === "hertz") return siScaleForHz(largest);
   if (quantity.kind === "seconds") return siScaleForSeconds(largest);
   return { symbol: quantity.unit, factor: 1 };
+}
+
+// Room a tick's label needs along the axis: the widest label and two character widths when
+// horizontal, two and a half line heights when vertical.
+function labelRoomPx(ticks: readonly AxisTick[], horizontal: boolean, textScale: number): number {
+  return horizontal ? Math.max(...ticks.map((t) => textWidthPx(t.label, textScale))) + 2 * FONT_METRICS.advancePx * textScale : 2.5 * textHeightPx(textScale);
 }
 
 /**
@@ -49,9 +69,11 @@ function scaleFor(quantity: AxisQuantity, min: number, max: number): SiScale {
  * most 12, without their labels crowding: horizontal labels keep at least two character
  * widths apart, vertical ones two and a half line heights. Labels carry enough decimals to
  * tell neighbours apart; the title is "name (unit)" with the SI prefix chosen for the range.
+ * A `time-utc` axis steps through {@link CALENDAR_STEPS} instead, at most 10 ticks.
  */
 export function buildAxis(request: AxisRequest): Axis {
   const { min, max, quantity, lengthPx, textScale } = request;
+  if (quantity.kind === "time-utc") return buildCalendarAxis(request);
   const scale = scaleFor(quantity, min, max);
   const title = scale.symbol === "" ? request.name : `${request.name} (${scale.symbol})`;
   const horizontal = request.orientation === "horizontal";
@@ -64,12 +86,32 @@ export function buildAxis(request: AxisRequest): Axis {
     if (candidate.length < 2 && ticks.length >= 2) break;
     ticks = candidate;
     const stepPx = (step / (max - min)) * lengthPx;
-    const neededPx = horizontal
-      ? Math.max(...ticks.map((t) => textWidthPx(t.label, textScale))) + 2 * FONT_METRICS.advancePx * textScale
-      : 2.5 * textHeightPx(textScale);
-    if (stepPx >= neededPx || ticks.length <= 2) break;
+    if (stepPx >= labelRoomPx(ticks, horizontal, textScale) || ticks.length <= 2) break;
   }
   return { min, max, title, ticks };
+}
+
+// Pixels between the closest two neighbouring ticks (months differ in length).
+function closestGapPx(ticks: readonly AxisTick[], min: number, max: number, lengthPx: number): number {
+  let gap = Infinity;
+  for (let i = 1; i < ticks.length; i++) gap = Math.min(gap, (ticks[i]?.value ?? 0) - (ticks[i - 1]?.value ?? 0));
+  return (gap / (max - min)) * lengthPx;
+}
+
+// The calendar steps from the shortest giving at most MAX_CALENDAR_TICKS up, as in buildAxis.
+function buildCalendarAxis(request: AxisRequest): Axis {
+  const { min, max, lengthPx, textScale } = request;
+  const horizontal = request.orientation === "horizontal";
+  let ticks: AxisTick[] = [];
+  for (const step of CALENDAR_STEPS) {
+    if ((max - min) / calendarStepSeconds(step) > 2 * MAX_CALENDAR_TICKS) continue;
+    const candidate = calendarTickValues(min, max, step).map((value) => ({ value, label: formatCalendarLabel(value, step) }));
+    if (candidate.length > MAX_CALENDAR_TICKS) continue;
+    if (candidate.length < 2 && ticks.length >= 2) break;
+    ticks = candidate;
+    if (ticks.length <= 2 || closestGapPx(ticks, min, max, lengthPx) >= labelRoomPx(ticks, horizontal, textScale)) break;
+  }
+  return { min, max, title: `${request.name} (UTC)`, ticks };
 }
 
 /**

@@ -30,6 +30,15 @@ export {
   type Ticks,
   type SiScale,
 } from "./ticks.js";
+export { daysFromCivil, civilFromDays, type CivilDate } from "./civilDate.js";
+export {
+  CALENDAR_STEPS,
+  calendarStepSeconds,
+  calendarTickValues,
+  formatCalendarLabel,
+  type CalendarStep,
+  type CalendarUnit,
+} from "./calendarTicks.js";
 export {
   buildAxis,
   positionPx,
@@ -66,6 +75,7 @@ export {
   type ShadedSpan,
   type PointNote,
 } from "./lineFigure.js";
+export { pointMarkerHalfPx, type PointSeries } from "./pointSeries.js";
 export { drawMarkerLines } from "./markerLines.js";
 export {
   renderConstellation,

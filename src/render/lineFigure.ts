@@ -1,8 +1,11 @@
 import type { AxisQuantity } from "./axes.js";
 import { encodePng } from "./encodePng.js";
-import { checkFigureSize, drawTitleBlock, fitText, PAGE_STYLE, pagePaddingPx, textScaleFor } from "./figureFrame.js";
+import { checkFigureSize, drawTitleBlock, PAGE_STYLE, textScaleFor } from "./figureFrame.js";
 import { textHeightPx, textWidthPx } from "./font.js";
+import { drawLegendRow, type LegendItem } from "./legendRow.js";
 import { drawPlotArea } from "./plotArea.js";
+import { drawPolyline } from "./polyline.js";
+import { checkPointSeries, drawPoint, drawPointSeries, joinLineWidthPx, pointSeriesValues, type PointSeries } from "./pointSeries.js";
 import { RgbaCanvas, type Rgb } from "./raster.js";
 import { drawMarkerLines } from "./markerLines.js";
 import type { FigureLayout } from "./spectrogramFigure.js";
@@ -47,7 +50,12 @@ export interface PointNote {
   readonly colour?: Rgb;
 }
 
-/** One axis of a line figure. The range defaults to the data (and markers); y gets 5 % headroom each side. */
+/**
+ * One axis of a line figure. The range defaults to the data (and markers, and the points with
+ * their bars); y gets 5 % headroom each side, and so does x when the figure has points, so that
+ * the end points are drawn whole. A range with nothing in it opens around the value, by a day
+ * each side on a time-utc axis.
+ */
 export interface LineFigureAxisInput {
   /** Name without the unit; the unit (SI-prefixed for hertz and seconds) is added in brackets. */
   readonly name: string;
@@ -63,6 +71,8 @@ export interface LineFigureInput {
   readonly x: LineFigureAxisInput;
   readonly y: LineFigureAxisInput;
   readonly series: readonly LineSeries[];
+  /** Points with uncertainty bars, drawn over the series and marker lines; in the legend after the series. */
+  readonly points?: readonly PointSeries[];
   readonly markers?: readonly MarkerLine[];
   readonly shaded?: readonly ShadedSpan[];
   readonly notes?: readonly PointNote[];
@@ -83,6 +93,9 @@ export const SERIES_COLOURS: readonly Rgb[] = [
 /** Default colour of marker lines: a deep red. */
 export const MARKER_COLOUR: Rgb = [178, 34, 52];
 
+// A flat time axis opens by this much each side: one day, in seconds.
+const FLAT_TIME_HALF_SPAN_S = 86_400;
+
 function extent(values: Iterable<number>): [number, number] | null {
   let lo = Infinity;
   let hi = -Infinity;
@@ -100,18 +113,20 @@ function* arrayValues(a: ArrayLike<number>): Iterable<number> {
 
 function* seriesAndMarkerValues(input: LineFigureInput, axis: "x" | "y"): Iterable<number> {
   for (const s of input.series) yield* arrayValues(axis === "x" ? s.xValues : s.yValues);
+  for (const p of input.points ?? []) yield* pointSeriesValues(p, axis);
   for (const m of input.markers ?? []) if ((m.orientation === "vertical") === (axis === "x")) yield m.value;
 }
 
 function axisRange(input: LineFigureInput, axis: "x" | "y"): [number, number] {
   const spec = input[axis];
   const data = extent(seriesAndMarkerValues(input, axis)) ?? [0, 1];
-  const headroom = axis === "y" ? 0.05 * (data[1] - data[0]) : 0;
+  const withPoints = (input.points?.length ?? 0) > 0;
+  const headroom = axis === "y" || withPoints ? 0.05 * (data[1] - data[0]) : 0;
   let lo = spec.min ?? data[0] - headroom;
   let hi = spec.max ?? data[1] + headroom;
   if (!(hi > lo)) {
     // A flat series: open a range around it.
-    const half = lo === 0 ? 1 : Math.abs(lo) * 0.05;
+    const half = spec.quantity.kind === "time-utc" ? FLAT_TIME_HALF_SPAN_S : lo === 0 ? 1 : Math.abs(lo) * 0.05;
     lo -= half;
     hi += half;
   }
@@ -120,10 +135,11 @@ function axisRange(input: LineFigureInput, axis: "x" | "y"): [number, number] {
 
 /**
  * A line figure as PNG: several series on one pair of axes (ticks, labels and units on both),
- * vertical and horizontal marker lines with their labels inside the plot, a legend row under
- * the subtitle, and a light grid. xOf and yOf map axis values to continuous image coordinates
- * (pixel column c covers [c, c + 1)). Throws RangeError for a figure below 480 × 320 px, a
- * series whose arrays differ in length, or an axis range with max ≤ min.
+ * points with uncertainty bars, vertical and horizontal marker lines with their labels inside
+ * the plot, a legend row under the subtitle, and a light grid. xOf and yOf map axis values to
+ * continuous image coordinates (pixel column c covers [c, c + 1)). Throws RangeError for a
+ * figure below 480 × 320 px, a series whose arrays differ in length, a point series with an
+ * error that is not finite and > 0 (NaN: no bar), or an axis range with max ≤ min.
  */
 export function renderLineFigure(input: LineFigureInput): {
   png: Buffer;
@@ -136,43 +152,31 @@ export function renderLineFigure(input: LineFigureInput): {
   for (const s of input.series)
     if (s.xValues.length !== s.yValues.length)
       throw new RangeError(`renderLineFigure: series "${s.label}" has ${s.xValues.length} x values and ${s.yValues.length} y values`);
+  for (const p of input.points ?? []) checkPointSeries(p, "renderLineFigure");
   const [xMin, xMax] = axisRange(input, "x");
   const [yMin, yMax] = axisRange(input, "y");
   if (!(xMax > xMin) || !(yMax > yMin)) throw new RangeError(`renderLineFigure: axis range must have max > min`);
 
   const s = textScaleFor(widthPx, heightPx);
-  const pad = pagePaddingPx(s);
-  const lineH = textHeightPx(s);
   const canvas = new RgbaCanvas(widthPx, heightPx, PAGE_STYLE.pageColour);
-  let top = drawTitleBlock(canvas, input.title, input.subtitle, s) + 4 * s;
-  const colours = input.series.map((series, i) => series.colour ?? SERIES_COLOURS[i % SERIES_COLOURS.length] ?? MARKER_COLOUR);
+  const top = drawTitleBlock(canvas, input.title, input.subtitle, s) + 4 * s;
+  const colours = input.series.map((series, i) => series.colour ?? defaultColour(i));
+  const points = input.points ?? [];
+  const pointColours = points.map((p, j) => p.colour ?? defaultColour(input.series.length + j));
+  const legend = [
+    ...input.series.map((series, i) => lineLegendItem(canvas, series, colours[i] ?? MARKER_COLOUR, s)),
+    ...points.map((p, j) => pointLegendItem(canvas, p, pointColours[j] ?? MARKER_COLOUR, s)),
+  ];
 
-  // Legend: a swatch and the label per series, wrapping onto further rows.
-  const swatchPx = 14 * s;
-  let legendX = pad;
-  input.series.forEach((series, i) => {
-    const label = fitText(series.label, widthPx - 2 * pad - swatchPx - 4 * s, s);
-    const itemWidth = swatchPx + 4 * s + textWidthPx(label, s);
-    if (legendX > pad && legendX + itemWidth > widthPx - pad) {
-      legendX = pad;
-      top += lineH + 3 * s;
-    }
-    const colour = colours[i] ?? MARKER_COLOUR;
-    const midY = top + Math.floor((7 * s) / 2);
-    canvas.line(legendX, midY, legendX + swatchPx - 1, midY, colour, series.dashed === true ? { widthPx: 2 * s, dashPx: [4 * s, 3 * s] } : { widthPx: 2 * s });
-    canvas.text(label, legendX + swatchPx + 4 * s, top, PAGE_STYLE.inkColour, { scale: s });
-    legendX += itemWidth + 14 * s;
-  });
-  if (input.series.length > 0) top += lineH;
-
-  const plotTop = top + 8 * s;
-  const { plot, xOf, yOf, px, py } = drawPlotArea(canvas, {
+  const plotTop = drawLegendRow(canvas, legend, top, s) + 8 * s;
+  const area = drawPlotArea(canvas, {
     x: { name: input.x.name, quantity: input.x.quantity, min: xMin, max: xMax },
     y: { name: input.y.name, quantity: input.y.quantity, min: yMin, max: yMax },
     plotTop,
     textScale: s,
     figure: "renderLineFigure",
   });
+  const { plot, xOf, yOf, px, py } = area;
 
   canvas.setClip(plot);
   for (const span of input.shaded ?? []) {
@@ -183,26 +187,37 @@ export function renderLineFigure(input: LineFigureInput): {
   input.series.forEach((series, i) => {
     const colour = colours[i] ?? MARKER_COLOUR;
     const style = series.dashed === true ? { widthPx: s, dashPx: [5 * s, 3 * s] as const } : { widthPx: s };
-    let prev: [number, number] | null = null;
-    for (let k = 0; k < series.xValues.length; k++) {
-      const x = series.xValues[k] ?? NaN;
-      const y = series.yValues[k] ?? NaN;
-      if (!Number.isFinite(x) || !Number.isFinite(y)) {
-        prev = null;
-        continue;
-      }
-      const point: [number, number] = [px(x), py(y)];
-      if (prev === null) canvas.line(point[0], point[1], point[0], point[1], colour, style);
-      else canvas.line(prev[0], prev[1], point[0], point[1], colour, style);
-      prev = point;
-    }
+    drawPolyline(canvas, series.xValues, series.yValues, colour, style, px, py);
   });
 
   drawMarkerLines(canvas, plot, input.markers ?? [], px, py, s);
+  // Points over the marker lines and their labels: a limit's label must not hide a measurement.
+  canvas.setClip(plot);
+  points.forEach((p, j) => drawPointSeries(canvas, p, pointColours[j] ?? MARKER_COLOUR, area, s));
+  canvas.setClip(null);
   for (const note of input.notes ?? []) drawNote(canvas, plot, note, px, py, s);
   canvas.setClip(null);
 
   return { png: encodePng(canvas), layout: { plot }, xOf, yOf };
+}
+
+function defaultColour(index: number): Rgb {
+  return SERIES_COLOURS[index % SERIES_COLOURS.length] ?? MARKER_COLOUR;
+}
+
+// A line series' swatch: a short thick line, dashed when the series is.
+function lineLegendItem(canvas: RgbaCanvas, series: LineSeries, colour: Rgb, s: number): LegendItem {
+  const style = series.dashed === true ? { widthPx: 2 * s, dashPx: [4 * s, 3 * s] as const } : { widthPx: 2 * s };
+  return { label: series.label, drawSwatch: (x, midY, widthPx) => canvas.line(x, midY, x + widthPx - 1, midY, colour, style) };
+}
+
+// A point series' swatch: one point with a bar, on a thin line when the points are joined.
+function pointLegendItem(canvas: RgbaCanvas, series: PointSeries, colour: Rgb, s: number): LegendItem {
+  const drawSwatch = (x: number, midY: number, widthPx: number): void => {
+    if (series.joined === true) canvas.line(x, midY, x + widthPx - 1, midY, colour, { widthPx: joinLineWidthPx(s) });
+    drawPoint(canvas, x + Math.floor(widthPx / 2), midY, [midY - 3 * s, midY + 3 * s], colour, s);
+  };
+  return { label: series.label, drawSwatch };
 }
 
 /** A ring at the note's point and its text on a page-coloured patch beside it, kept inside the plot. */
