@@ -26,6 +26,9 @@ import { removeTemporaries } from "./report/index.js";
 import { checkCommand } from "./commands/check.js";
 import { checkText } from "./report/checkText.js";
 import { templateListText } from "./licence/index.js";
+import { archiveAdd, archiveCompare, archiveExport, archiveHistory, archiveList, archiveShow, archiveVerify } from "./commands/archive.js";
+import { archiveCompareText, archiveHistoryText, archiveListText, archiveShowText, archiveVerifyText } from "./report/archiveText.js";
+import { defaultArchivePath } from "./archive/index.js";
 
 /** Exit code of a command that ran: 1 when `check` found a term failed (interface.md). */
 let ranExitCode = 0;
@@ -131,7 +134,8 @@ function program(): Command {
     .option("--symbol-rate <Bd>", "symbol rate of a digital emission, e.g. 19.2k (default: found blind)")
     .option("--rolloff <alpha>", "RRC roll-off of a PSK/QAM emission (default: estimated from its occupied bandwidth)")
     .option("-o, --out <dir>", "write report.json, report.md and the figures (PNG) into this folder, published whole (an earlier report there is replaced)")
-    .option("--json", "print the report as one JSON document on stdout (schema iqaudit/report/1)")
+    .option("--json", "print the report as one JSON document on stdout (schema iqaudit/report/1)");
+  archiveAddOptions(root.commands[root.commands.length - 1] as Command)
     .addHelpText(
       "after",
       "\nWithout --json a summary for a person is printed. Figures and methods: docs/methods.md.\n" +
@@ -143,8 +147,9 @@ function program(): Command {
         flags: RawCaptureFlags & {
           channel?: string; nominal?: string; referencePpm?: string; xdb: string; audioBw: string; mode?: MeasureMode; out?: string; json?: boolean;
           order?: string; symbolRate?: string; rolloff?: string;
-        },
+        } & ArchiveAddFlags,
       ) => {
+        checkArchiveAdd(flags);
         const progress = createProgress(`measure ${path}`, !quiet());
         const result = await measureCommand(path, {
           capture: captureArgs(flags),
@@ -162,6 +167,7 @@ function program(): Command {
         });
         progress.done();
         warn(result.report.warnings);
+        await archiveAfter(flags);
         await writeStdout(flags.json === true ? `${JSON.stringify(result.report, null, 2)}\n` : measureText(result.report, result.files));
       },
     );
@@ -183,7 +189,8 @@ function program(): Command {
     .option("--sigmf-annotations", "also write <capture>.survey.sigmf-meta beside the capture: its metadata with one annotation per emission (never the capture's own .sigmf-meta)")
     .option("-o, --out <dir>", "write survey.json, survey.md, survey.png and a folder per emission into this folder, published whole")
     .option("--json", "print the survey as one JSON document on stdout (schema iqaudit/survey/1)")
-    .option("--threads <n>", "worker threads for the channel extraction and the analyses: 2 by default on a machine of two or more cores; 1 or 0 to use less memory (0: all in the main thread)")
+    .option("--threads <n>", "worker threads for the channel extraction and the analyses: 2 by default on a machine of two or more cores; 1 or 0 to use less memory (0: all in the main thread)");
+  archiveAddOptions(root.commands[root.commands.length - 1] as Command)
     .addHelpText(
       "after",
       "\nThe detection threshold follows from --pfa and the chi-square law of averaged periodograms (docs/methods.md).\n" +
@@ -192,8 +199,9 @@ function program(): Command {
     .action(
       async (
         path: string,
-        flags: RawCaptureFlags & { pfa: string; minBandwidth: string; minDuration: string; audioBw: string; sigmfAnnotations?: boolean; out?: string; json?: boolean; threads?: string },
+        flags: RawCaptureFlags & { pfa: string; minBandwidth: string; minDuration: string; audioBw: string; sigmfAnnotations?: boolean; out?: string; json?: boolean; threads?: string } & ArchiveAddFlags,
       ) => {
+        checkArchiveAdd(flags);
         const progress = createProgress(`survey ${path}`, !quiet());
         const threads = flags.threads === undefined ? undefined : parseQuantity("--threads", flags.threads, { unit: "none", min: 0, minInclusive: true });
         if (threads !== undefined && !(Number.isInteger(threads) && threads <= 8)) throw new UsageError("--threads", `${flags.threads} must be a whole number from 0 to 8`);
@@ -215,6 +223,7 @@ function program(): Command {
         progress.done();
         extraction.done();
         warn(result.report.warnings);
+        await archiveAfter(flags);
         const written = result.files.length === 0 ? "" : `\nWritten: ${result.files.length} files under ${flags.out ?? "."}${result.files.some((f) => f.endsWith(".sigmf-meta")) ? ` and ${result.files.find((f) => f.endsWith(".sigmf-meta"))}` : ""}\n`;
         await writeStdout(flags.json === true ? `${JSON.stringify(result.report, null, 2)}\n` : `${surveyMarkdown(result.report)}${written}`);
       },
@@ -237,7 +246,8 @@ function program(): Command {
     .option("--list-templates", "list the licence templates with their values, sources and status, and exit")
     .option("--reference-ppm <u>", "uncertainty of the receiver's frequency reference, ppm (k = 2), carried into the frequency check; without it the report says it is not included")
     .option("-o, --out <dir>", "write check.json, check.md, mask.png and the measure report (report.json, report.md, figures) into this folder, published whole")
-    .option("--json", "print the check as one JSON document on stdout (schema iqaudit/check/1)")
+    .option("--json", "print the check as one JSON document on stdout (schema iqaudit/check/1)");
+  archiveAddOptions(root.commands[root.commands.length - 1] as Command)
     .addHelpText(
       "after",
       "\nDecision rule: ILAC-G8:09/2019 §4.2.3 with the guard band w = U: pass, conditional pass (within U below the limit),\n" +
@@ -250,8 +260,9 @@ function program(): Command {
     .action(
       async (
         path: string | undefined,
-        flags: RawCaptureFlags & { licence?: string; template?: string; assigned?: string; listTemplates?: boolean; referencePpm?: string; out?: string; json?: boolean },
+        flags: RawCaptureFlags & { licence?: string; template?: string; assigned?: string; listTemplates?: boolean; referencePpm?: string; out?: string; json?: boolean } & ArchiveAddFlags,
       ) => {
+        checkArchiveAdd(flags);
         if (flags.listTemplates === true) {
           await writeStdout(templateListText());
           return;
@@ -269,10 +280,13 @@ function program(): Command {
         });
         progress.done();
         warn(result.report.warnings);
+        await archiveAfter(flags);
         await writeStdout(flags.json === true ? `${JSON.stringify(result.report, null, 2)}\n` : checkText(result.report, result.files));
         if (result.report.verdict === "fail") ranExitCode = 1;
       },
     );
+
+  addArchiveCommands(root);
 
   root
     .command("demo")
@@ -284,6 +298,132 @@ function program(): Command {
       await writeStdout(summary.text);
     });
   return root;
+}
+
+interface ArchiveFlags { archive?: string; json?: boolean }
+
+interface ArchiveAddFlags { archiveAdd?: boolean; archive?: string; tag: string[]; note?: string }
+
+/** --archive-add and its companions on a command that writes a report folder with -o. */
+function archiveAddOptions(c: Command): Command {
+  return archiveOption(c)
+    .option("--archive-add", "store the report folder written with -o in the archive (iqaudit archive add)")
+    .option("--tag <name>", "with --archive-add: a tag for the entry, e.g. a station name (repeatable)", collect, [])
+    .option("--note <text>", "with --archive-add: a note kept with the entry");
+}
+
+/** Checked before the command runs: --archive-add needs the folder it stores. */
+function checkArchiveAdd(flags: ArchiveAddFlags & { out?: string }): void {
+  if (flags.archiveAdd === true && flags.out === undefined) throw new UsageError("--archive-add", "needs -o DIR: the archive stores the report folder written there");
+}
+
+/** After the folder is published: store it, and say so on stderr (stdout carries only the requested output). */
+async function archiveAfter(flags: ArchiveAddFlags & { out?: string }): Promise<void> {
+  if (flags.archiveAdd !== true || flags.out === undefined) return;
+  const r = await archiveAdd([flags.out], { archivePath: flags.archive, tags: flags.tag, note: flags.note });
+  for (const e of r.entries) process.stderr.write(`iqaudit: ${e.added ? "archived" : "already in the archive"}: entry ${e.id} in ${r.archive}\n`);
+}
+
+/** The repeatable --tag. */
+function collect(value: string, previous: string[]): string[] {
+  return [...previous, value];
+}
+
+function archiveOption(c: Command): Command {
+  return c.option("--archive <path>", `the archive's database file (default: IQAUDIT_ARCHIVE, else ${defaultArchivePath()})`);
+}
+
+function parseId(option: string, text: string): number {
+  const n = Number(text);
+  if (!Number.isInteger(n) || n < 1) throw new UsageError(option, `'${text}' is not an entry id (a whole number from 1; iqaudit archive list)`);
+  return n;
+}
+
+function addArchiveCommands(root: Command): void {
+  const archive = root
+    .command("archive")
+    .description("a local archive of reports (one SQLite database and its stored files): add, list, show, export, compare, history, verify")
+    .addHelpText("after", "\nEntries are stored whole or not at all; `verify` re-hashes every stored file. Storage and schema: docs/archive.md.");
+  archiveOption(archive.command("add").argument("<report-dir...>", "report folders written with -o by measure, check or survey"))
+    .description("store report folders (each whole, checked against the SHA-256 its manifest lists); one already stored is recognised and only gains the new tags")
+    .option("--tag <name>", "a tag to find the entry by, e.g. a station or transmitter (repeatable)", collect, [])
+    .option("--note <text>", "a note kept with the entry")
+    .option("--captured-at <iso>", "when the capture was recorded (ISO 8601, UTC), where the capture file does not say (WAV, raw)")
+    .option("--json", "print the added entries as JSON")
+    .action(async (dirs: string[], flags: ArchiveFlags & { tag: string[]; note?: string; capturedAt?: string }) => {
+      const r = await archiveAdd(dirs, { archivePath: flags.archive, tags: flags.tag, note: flags.note, capturedAt: flags.capturedAt });
+      await writeStdout(flags.json === true ? `${JSON.stringify(r, null, 2)}\n` : r.entries.map((e) => `${e.added ? "added" : "already stored"}: entry ${e.id} (${e.kind}) from ${e.folder}\n`).join(""));
+    });
+  archiveOption(archive.command("list"))
+    .description("the entries, oldest first, filtered by frequency, class, designator, tag, time, capture or check decision")
+    .option("--from-hz <Hz>", "lowest frequency (absolute RF), e.g. 164.9M")
+    .option("--to-hz <Hz>", "highest frequency (absolute RF)")
+    .option("--class <class>", "modulation class: cw, am, fm, fsk, ook, psk, qam, noise, unknown")
+    .option("--designator <code>", "emission designator, e.g. 16K0F3E")
+    .option("--tag <name>", "entries with this tag")
+    .option("--since <iso>", "entries recorded (else measured) at or after this time")
+    .option("--until <iso>", "entries recorded (else measured) at or before this time")
+    .option("--capture <sha256>", "entries of the capture with this SHA-256")
+    .option("--decision <d>", "check entries with this decision: pass, conditional-pass, conditional-fail, fail")
+    .option("--json", "print the entries as a JSON array")
+    .action(async (flags: ArchiveFlags & { fromHz?: string; toHz?: string; class?: string; designator?: string; tag?: string; since?: string; until?: string; capture?: string; decision?: string }) => {
+      const time = (option: string, t: string | undefined): string | undefined => {
+        if (t === undefined) return undefined;
+        if (Number.isNaN(Date.parse(t))) throw new UsageError(option, `'${t}' is not an ISO 8601 time, e.g. 2024-09-17 or 2024-09-17T07:05:00Z`);
+        return new Date(t).toISOString();
+      };
+      const entries = await archiveList({
+        minFrequencyHz: flags.fromHz === undefined ? undefined : parseQuantity("--from-hz", flags.fromHz, { unit: "Hz", min: 0, minInclusive: true }),
+        maxFrequencyHz: flags.toHz === undefined ? undefined : parseQuantity("--to-hz", flags.toHz, { unit: "Hz", min: 0, minInclusive: true }),
+        modulationClass: flags.class, designator: flags.designator, tag: flags.tag,
+        from: time("--since", flags.since), to: time("--until", flags.until), captureSha256: flags.capture, checkDecision: flags.decision,
+      }, { archivePath: flags.archive });
+      await writeStdout(flags.json === true ? `${JSON.stringify(entries, null, 2)}\n` : archiveListText(entries));
+    });
+  archiveOption(archive.command("show").argument("<id>", "entry id"))
+    .description("one entry: its capture, tags, files with their SHA-256 and every figure with its uncertainty")
+    .option("--json", "print the entry as JSON")
+    .action(async (id: string, flags: ArchiveFlags) => {
+      const d = await archiveShow(parseId("<id>", id), { archivePath: flags.archive });
+      await writeStdout(flags.json === true ? `${JSON.stringify(d, null, 2)}\n` : archiveShowText(d));
+    });
+  archiveOption(archive.command("export").argument("<id>", "entry id"))
+    .description("write an entry's report and figures, byte-identical to what was added, into a folder (published whole)")
+    .requiredOption("-o, --out <dir>", "the folder to write")
+    .action(async (id: string, flags: ArchiveFlags & { out: string }) => {
+      const files = await archiveExport(parseId("<id>", id), parseOutPath("--out", flags.out), { archivePath: flags.archive });
+      await writeStdout(`exported ${files.length} files into ${flags.out}\n`);
+    });
+  archiveOption(archive.command("compare").argument("<first>", "entry id").argument("<second>", "entry id"))
+    .description("each figure two entries share, side by side, the change, and whether it exceeds the combined expanded uncertainty √(U1² + U2²)")
+    .option("--json", "print the comparison as JSON")
+    .action(async (a: string, b: string, flags: ArchiveFlags) => {
+      const c = await archiveCompare(parseId("<first>", a), parseId("<second>", b), { archivePath: flags.archive });
+      await writeStdout(flags.json === true ? `${JSON.stringify(c, null, 2)}\n` : archiveCompareText(c));
+    });
+  archiveOption(archive.command("history"))
+    .description("one numeric report field over time for a tag, as a table and with -o a PNG with the uncertainty bars and the limit line")
+    .requiredOption("--tag <name>", "the entries of this tag")
+    .requiredOption("--field <path>", "a numeric report field, e.g. carrier.errorPpm, fm.peakDeviationHz, bandwidth.occupiedHz")
+    .option("--limit <value>", "draw this limit (default: the limit of the tag's latest check of the field)")
+    .option("-o, --out <file.png>", "write the figure")
+    .option("--json", "print the history as JSON")
+    .action(async (flags: ArchiveFlags & { tag: string; field: string; limit?: string; out?: string }) => {
+      const h = await archiveHistory({
+        archivePath: flags.archive, tag: flags.tag, field: flags.field,
+        limit: flags.limit === undefined ? undefined : parseQuantity("--limit", flags.limit, { unit: "none" }),
+        outPath: flags.out === undefined ? undefined : parseOutPath("--out", flags.out),
+      });
+      await writeStdout(flags.json === true ? `${JSON.stringify(h, null, 2)}\n` : archiveHistoryText(h));
+    });
+  archiveOption(archive.command("verify"))
+    .description("re-hash every stored file and check the database's integrity; exit 1 when anything is missing or altered")
+    .option("--json", "print the result as JSON")
+    .action(async (flags: ArchiveFlags) => {
+      const v = await archiveVerify({ archivePath: flags.archive });
+      await writeStdout(flags.json === true ? `${JSON.stringify(v, null, 2)}\n` : archiveVerifyText(v));
+      if (v.problems.length > 0) ranExitCode = 1;
+    });
 }
 
 function parseChannel(text: string): { offsetHz: number; widthHz: number } {
@@ -339,12 +479,12 @@ function systemErrorLine(e: unknown): string | null {
 
 export async function main(argv: readonly string[]): Promise<number> {
   const cli = program();
-  cli.exitOverride();
-  cli.configureOutput({ outputError: () => undefined });
-  for (const c of cli.commands) {
+  const quietly = (c: Command): void => {
     c.exitOverride();
     c.configureOutput({ outputError: () => undefined });
-  }
+    for (const sub of c.commands) quietly(sub);
+  };
+  quietly(cli);
   try {
     ranExitCode = 0;
     await cli.parseAsync(argv as string[], { from: "node" });

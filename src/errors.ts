@@ -8,6 +8,7 @@ export type IqauditErrorCode =
   | "usage" // a bad option or option value
   | "parameter" // a parameter outside its bound (library use)
   | "licence_file" // a licence file that cannot be used
+  | "archive" // an archive that cannot be opened or used, or an entry that is not there
   | "output"; // an output file, folder or stdout that cannot be written
 
 export class IqauditError extends Error {
@@ -76,6 +77,14 @@ export class OutputError extends IqauditError {
     super("output", target, problem);
     this.name = "OutputError";
     this.target = target;
+  }
+}
+
+/** An archive (its database or stored files) that cannot be used, or a request it cannot answer. `subject` is the archive's path or the entry asked for. */
+export class ArchiveError extends IqauditError {
+  constructor(subject: string, problem: string) {
+    super("archive", subject, problem);
+    this.name = "ArchiveError";
   }
 }
 

@@ -10,6 +10,9 @@ import {
   SCENARIO_CAPTURES, SCENARIO_LICENCES, emissionEdgesHz, emissionTransmitter, writeScenario, writeScenarioLicences, type ScenarioFile,
 } from "../scenario/index.js";
 import { checkCommand } from "./check.js";
+import { archiveAdd, archiveCompare, archiveHistory } from "./archive.js";
+import { existsSync } from "node:fs";
+import { rm } from "node:fs/promises";
 import type { CheckReport } from "../report/checkReport.js";
 import type { MeasureReport } from "../report/measureReport.js";
 import { inspectCommand } from "./inspect.js";
@@ -70,6 +73,7 @@ export async function demoCommand(options: DemoOptions): Promise<DemoSummary> {
     );
   }
   lines.push(...(await surveyDemo(scenario, options.outDir, written, warnings)));
+  lines.push(...(await archiveDemo(scenario, options.outDir, written)));
   lines.push("Results are indicative; see iqaudit --help for the cautions of transmitter testing.", "");
   const text = lines.join("\n");
   await writeFileAtomic(join(options.outDir, "SUMMARY.txt"), text);
@@ -192,6 +196,51 @@ function measuredLine(m: MeasureReport): string {
     m.ook.dutyCyclePercent === null ? "" : `duty ${m.ook.dutyCyclePercent.toFixed(1)} %`,
   ];
   return parts.filter((p) => p !== "").join(", ");
+}
+
+/**
+ * The demo's own archive, `<outDir>/archive/archive.sqlite` (never the user's): every check-*
+ * folder tagged with its transmitter and every measure-* folder with `measure:<transmitter>`, each
+ * with the time its capture was recorded (the scenario's; WAV and raw files do not carry it),
+ * and the site survey; then the two visits of the launch channel compared and its carrier error's
+ * history drawn (`launch-history.png`). An earlier demo run's archive in the same folder is removed first.
+ */
+async function archiveDemo(scenario: readonly ScenarioFile[], outDir: string, written: string[]): Promise<string[]> {
+  const location = { archivePath: join(outDir, "archive", "archive.sqlite") };
+  // A demo run's archive holds that run: an earlier run's is replaced, not added to.
+  await rm(join(outDir, "archive"), { recursive: true, force: true });
+  const added: { id: number; captureId: string; kind: string; tx: string }[] = [];
+  for (const file of scenario) {
+    const capture = SCENARIO_CAPTURES.find((c) => c.id === file.captureId);
+    if (capture === undefined) continue;
+    const folder = join(outDir, basename(file.path).replace(/\.[^.]+$/, ""));
+    for (const e of capture.emissions) {
+      for (const [sub, tags] of [[`check-${e.transmitterId}`, [e.transmitterId]], [`measure-${e.transmitterId}`, [`measure:${e.transmitterId}`]]] as const) {
+        const dir = join(folder, sub);
+        if (!existsSync(join(dir, sub.startsWith("check-") ? "check.json" : "report.json"))) continue;
+        const r = await archiveAdd([dir], { ...location, tags: [...tags, "site:ostrel-bay"], capturedAt: capture.datetime });
+        for (const x of r.entries) added.push({ id: x.id, captureId: capture.id, kind: x.kind, tx: e.transmitterId });
+      }
+    }
+  }
+  const survey = join(outDir, "site-survey");
+  if (existsSync(join(survey, "survey.json"))) await archiveAdd([survey], { ...location, tags: ["site:ostrel-bay"] });
+  const visits = added.filter((a) => a.kind === "check" && a.tx === "launch" && a.captureId.startsWith("launch"));
+  const lines = [`archive: ${added.length + 1} entries in ${location.archivePath}`];
+  if (visits.length >= 2) {
+    const c = await archiveCompare((visits[0] as { id: number }).id, (visits[visits.length - 1] as { id: number }).id, location);
+    const e = c.figures.find((f) => f.field === "carrier.errorPpm");
+    if (e !== undefined) {
+      lines.push(`  the launch channel's two visits (entries ${c.first.id}, ${c.second.id}): carrier error ${e.first.toFixed(3)} -> ${e.second.toFixed(3)} ppm, ` +
+        `change ${e.change >= 0 ? "+" : ""}${e.change.toFixed(3)} ppm ${e.significant === true ? "beyond" : "within"} the combined uncertainty ${e.combinedUncertainty?.toFixed(4) ?? "(not known)"} ppm`);
+    }
+    const png = join(outDir, "launch-history.png");
+    const h = await archiveHistory({ ...location, tag: "launch", field: "carrier.errorPpm", outPath: png });
+    written.push(png);
+    lines.push(`  history of the launch channel's carrier error: ${h.points.length} checks${h.limit === null ? "" : `, limit ±${h.limit.value} ppm`} -> ${png}`);
+  }
+  lines.push("");
+  return lines;
 }
 
 /**

@@ -9,6 +9,8 @@ import { join, relative } from "node:path";
 import { describe, expect, it } from "vitest";
 import { demoCommand } from "../../src/commands/demo.js";
 import { SCENARIO_CAPTURES } from "../../src/scenario/index.js";
+import { Archive } from "../../src/archive/index.js";
+import { PNG } from "pngjs";
 
 /** Every file below `dir`, as paths relative to it with `/`. */
 function filesBelow(dir: string, base = dir): string[] {
@@ -28,7 +30,7 @@ describe("demoCommand({ outDir })", () => {
   it("publishes each capture folder whole, with its measure-* report folders whole inside it", async () => {
     const out = mkdtempSync(join(tmpdir(), "iqaudit-demo-"));
     await demoCommand({ outDir: out });
-    const folders = readdirSync(out).filter((n) => n !== "captures" && n !== "SUMMARY.txt" && n !== "site-survey");
+    const folders = readdirSync(out).filter((n) => !["captures", "SUMMARY.txt", "site-survey", "archive", "launch-history.png"].includes(n));
     // One folder per capture of the sample scenario (samples/README.md), named after its file.
     expect(folders.sort()).toEqual(SCENARIO_CAPTURES.map((c) => c.fileName.replace(/\.[^.]+$/, "")).sort());
     // The blind survey of the site capture, published whole with survey.json as its manifest.
@@ -72,5 +74,19 @@ describe("demoCommand({ outDir })", () => {
     const wb = read("workboat-channel_165.1375MHz", "workboat");
     expect(wb.verdict).toBe("fail");
     expect(wb.checks.filter((c) => c.pass === false).map((c) => c.name)).toEqual(["deviation"]);
+    // The demo's own archive (never the user's): it verifies clean, and the launch channel's history
+    // holds its three checks (the survey's, the first visit's, the revisit's) in recorded order.
+    const archive = Archive.open(join(out, "archive", "archive.sqlite"));
+    try {
+      expect((await archive.verify()).problems).toEqual([]);
+      const h = archive.history("launch", "carrier.errorPpm");
+      expect(h.map((p) => p.time)).toEqual([...h.map((p) => p.time)].sort());
+      expect(h.length).toBe(3);
+      // The revisit's oscillator: +260 Hz at 164.975 MHz = +1.576 ppm (samples/README.md).
+      expect(Math.abs((h[2]?.value ?? 0) - (260 / 164.975e6) * 1e6)).toBeLessThan(0.01);
+    } finally {
+      archive.close();
+    }
+    expect(PNG.sync.read(readFileSync(join(out, "launch-history.png"))).width).toBe(1200);
   });
 });
