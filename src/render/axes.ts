@@ -1,4 +1,4 @@
-import { FONT_METRICS, textHeightPx, textWidthPx } from "./font.js";
+import { capMiddlePx, textHeightPx, textWidthPx } from "./font.js";
 import type { Rect, Rgb, RgbaCanvas } from "./raster.js";
 import { formatTickLabel, nextNiceStep, niceNumber, siScaleForHz, siScaleForSeconds, ticksWithStep, type SiScale } from "./ticks.js";
 
@@ -46,8 +46,8 @@ function scaleFor(quantity: AxisQuantity, min: number, max: number): SiScale {
 
 /**
  * An axis with as many nice ticks (1, 2 or 5 × 10^k apart, as in Heckbert 1990) as fit, at
- * most 12, without their labels crowding: horizontal labels keep at least two character
- * widths apart, vertical ones two and a half line heights. Labels carry enough decimals to
+ * most 12, without their labels crowding: horizontal labels keep at least two figure widths
+ * ("00") apart, vertical ones two and a half line heights. Labels carry enough decimals to
  * tell neighbours apart; the title is "name (unit)" with the SI prefix chosen for the range.
  */
 export function buildAxis(request: AxisRequest): Axis {
@@ -65,7 +65,7 @@ export function buildAxis(request: AxisRequest): Axis {
     ticks = candidate;
     const stepPx = (step / (max - min)) * lengthPx;
     const neededPx = horizontal
-      ? Math.max(...ticks.map((t) => textWidthPx(t.label, textScale))) + 2 * FONT_METRICS.advancePx * textScale
+      ? Math.max(...ticks.map((t) => textWidthPx(t.label, textScale))) + textWidthPx("00", textScale)
       : 2.5 * textHeightPx(textScale);
     if (stepPx >= neededPx || ticks.length <= 2) break;
   }
@@ -158,9 +158,8 @@ export function drawAxes(canvas: RgbaCanvas, plot: Rect, x: Axis, y: Axis, style
     canvas.line(plot.x - tick, py, plot.x - 2, py, style.frameColour, { widthPx: s });
     const w = textWidthPx(t.label, s);
     widest = Math.max(widest, w);
-    // Centre the label's cap height (7 of its 9 rows) on the tick.
-    const capH = FONT_METRICS.ascentPx * s;
-    canvas.text(t.label, plot.x - tick - gap - w, py - Math.floor(capH / 2), style.textColour, { scale: s });
+    // Centre the label's figures (cap height) on the tick.
+    canvas.text(t.label, plot.x - tick - gap - w, py - capMiddlePx(s), style.textColour, { scale: s });
   }
   const yTitleLength = textWidthPx(y.title, s);
   const yTitleX = plot.x - tick - 2 * gap - widest - lineH;

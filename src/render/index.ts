@@ -1,5 +1,6 @@
 // The public surface of src/render: re-exports only.
-export { FONT_METRICS, glyphFor, textWidthPx, textHeightPx, forEachInkPixel, type Glyph } from "./font.js";
+export { fontMetricsPx, hasGlyph, textWidthPx, textHeightPx, capMiddlePx, forEachInkPixel, type FontMetricsPx } from "./font.js";
+export { rasteriseOutline, SUBSCANLINES, type CoverageBitmap, type OutlineCommand } from "./outlineRaster.js";
 export { RgbaCanvas, measureText, type Rgb, type Rect, type LineStyle, type TextStyle } from "./raster.js";
 export {
   srgbEncode,

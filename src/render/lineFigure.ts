@@ -1,7 +1,7 @@
 import type { AxisQuantity } from "./axes.js";
 import { encodePng } from "./encodePng.js";
 import { checkFigureSize, drawTitleBlock, fitText, PAGE_STYLE, pagePaddingPx, textScaleFor } from "./figureFrame.js";
-import { textHeightPx, textWidthPx } from "./font.js";
+import { capMiddlePx, textHeightPx, textWidthPx } from "./font.js";
 import { drawPlotArea } from "./plotArea.js";
 import { RgbaCanvas, type Rgb } from "./raster.js";
 import { drawMarkerLines } from "./markerLines.js";
@@ -158,7 +158,7 @@ export function renderLineFigure(input: LineFigureInput): {
       top += lineH + 3 * s;
     }
     const colour = colours[i] ?? MARKER_COLOUR;
-    const midY = top + Math.floor((7 * s) / 2);
+    const midY = top + capMiddlePx(s);
     canvas.line(legendX, midY, legendX + swatchPx - 1, midY, colour, series.dashed === true ? { widthPx: 2 * s, dashPx: [4 * s, 3 * s] } : { widthPx: 2 * s });
     canvas.text(label, legendX + swatchPx + 4 * s, top, PAGE_STYLE.inkColour, { scale: s });
     legendX += itemWidth + 14 * s;
