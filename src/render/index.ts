@@ -14,6 +14,10 @@ export {
   COLOUR_RAMP_SIZE,
   COLOUR_RAMP_OKLAB,
   COLOUR_RAMP_RGB,
+  labFromLch,
+  rampHueRad,
+  maxChromaInGamut,
+  oklabToSrgb8,
   type Oklab,
   type LinearRgb,
 } from "./colourRamp.js";
@@ -68,6 +72,7 @@ export {
   type PointNote,
 } from "./lineFigure.js";
 export { drawMarkerLines } from "./markerLines.js";
+export { SERIES_PALETTE_OKLAB, SERIES_PALETTE_RGB } from "./seriesPalette.js";
 export {
   renderConstellation,
   CONSTELLATION_GRID_CELLS,
