@@ -6,10 +6,12 @@
  *
  * Sizes go by a text scale step, as the figures' layouts do: the capital height is
  * round(8 × 1.25^(scale − 1)) px, i.e. 8, 10 and 13 px at scales 1, 2 and 3 (a type scale of
- * ratio 1.25), and the em is chosen so that capitals and figures are exactly that many pixels
+ * ratio 1.25), and the em is chosen so that flat capitals (H) are exactly that many pixels
  * tall, their top and bottom edges on pixel boundaries. At scale 2 (tick labels of a figure
  * 900 px wide or more) the em is 14.3 px. Rasterised glyphs are cached per (glyph, size,
- * quarter-pixel phase of the pen).
+ * quarter-pixel phase of the pen), so only a process's first figure pays for them: a 1200 × 700
+ * line figure renders in about 230 ms the first time (font loaded, glyphs rasterised) and 96 ms
+ * after, against 130 ms and 87 ms with the former bitmap font (src/bench/figureBench.ts).
  */
 import { figureFont } from "./fontFile.js";
 import { rasteriseOutline, type CoverageBitmap } from "./outlineRaster.js";
