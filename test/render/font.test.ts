@@ -3,7 +3,7 @@ import { createRequire } from "node:module";
 import type { Font } from "opentype.js";
 import { PNG } from "pngjs";
 import { describe, expect, it } from "vitest";
-import { encodePng, fontMetricsPx, forEachInkPixel, hasGlyph, RgbaCanvas, textHeightPx, textWidthPx, type Rgb } from "../../src/render/index.js";
+import { encodePng, fitText, fontMetricsPx, forEachInkPixel, hasGlyph, RgbaCanvas, textHeightPx, textWidthPx, type Rgb } from "../../src/render/index.js";
 
 const WHITE: Rgb = [255, 255, 255];
 const BLACK: Rgb = [0, 0, 0];
@@ -133,6 +133,19 @@ describe("figure text", () => {
       const key = cells.join(";");
       expect(seen.get(key), `${JSON.stringify(ch)} looks like ${seen.get(key)}`).toBeUndefined();
       seen.set(key, ch);
+    }
+  });
+
+  it("fitText(text, maxWidthPx) keeps the longest prefix that fits with an ellipsis, and the text itself when it fits", () => {
+    const title = "Spectral mask: launch-channel_164.975MHz.wav";
+    expect(fitText(title, textWidthPx(title, 2), 2)).toBe(title);
+    for (const maxWidthPx of [40, 100, 300]) {
+      const fitted = fitText(title, maxWidthPx, 2);
+      expect(fitted.endsWith("…")).toBe(true);
+      expect(textWidthPx(fitted, 2)).toBeLessThanOrEqual(maxWidthPx);
+      const kept = [...fitted].length - 1;
+      // One more character of the title would not fit.
+      expect(textWidthPx(`${[...title].slice(0, kept + 1).join("")}…`, 2)).toBeGreaterThan(maxWidthPx);
     }
   });
 
