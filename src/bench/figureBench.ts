@@ -3,7 +3,7 @@
  * three marker lines, a note; title, subtitle, legend, axes) to PNG, the first time in the
  * process (font loaded, glyphs rasterised) and then the median of 30 more. Not a test: numbers
  * for a person to read. Measured on this 2-core machine, alternating with a build of the former
- * bitmap font: about 230 ms first and a median of 96 ms after, against 130 ms and 87 ms (PNG
+ * bitmap font: 220–430 ms first and a median of 96 ms after, against 130–175 ms and 87 ms (PNG
  * encoding is most of either).
  */
 import { renderLineFigure, type LineFigureInput } from "../render/index.js";

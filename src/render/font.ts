@@ -10,8 +10,8 @@
  * tall, their top and bottom edges on pixel boundaries. At scale 2 (tick labels of a figure
  * 900 px wide or more) the em is 14.3 px. Rasterised glyphs are cached per (glyph, size,
  * quarter-pixel phase of the pen), so only a process's first figure pays for them: a 1200 × 700
- * line figure renders in about 230 ms the first time (font loaded, glyphs rasterised) and 96 ms
- * after, against 130 ms and 87 ms with the former bitmap font (src/bench/figureBench.ts).
+ * line figure renders in 220–430 ms the first time (font loaded, glyphs rasterised) and 96 ms
+ * after, against 130–175 ms and 87 ms with the former bitmap font (src/bench/figureBench.ts).
  */
 import { figureFont } from "./fontFile.js";
 import { rasteriseOutline, type CoverageBitmap } from "./outlineRaster.js";
