@@ -1,4 +1,4 @@
-import { FONT_METRICS, textHeightPx, textWidthPx } from "./font.js";
+import { capMiddlePx, textHeightPx, textWidthPx } from "./font.js";
 import type { Rect, Rgb, RgbaCanvas } from "./raster.js";
 import { CALENDAR_STEPS, calendarStepSeconds, calendarTickValues, formatCalendarLabel } from "./calendarTicks.js";
 import { formatTickLabel, nextNiceStep, niceNumber, siScaleForHz, siScaleForSeconds, ticksWithStep, type SiScale } from "./ticks.js";
@@ -61,13 +61,13 @@ function scaleFor(quantity: NumericQuantity, min: number, max: number): SiScale 
 // Room a tick's label needs along the axis: the widest label and two character widths when
 // horizontal, two and a half line heights when vertical.
 function labelRoomPx(ticks: readonly AxisTick[], horizontal: boolean, textScale: number): number {
-  return horizontal ? Math.max(...ticks.map((t) => textWidthPx(t.label, textScale))) + 2 * FONT_METRICS.advancePx * textScale : 2.5 * textHeightPx(textScale);
+  return horizontal ? Math.max(...ticks.map((t) => textWidthPx(t.label, textScale))) + textWidthPx("00", textScale) : 2.5 * textHeightPx(textScale);
 }
 
 /**
  * An axis with as many nice ticks (1, 2 or 5 × 10^k apart, as in Heckbert 1990) as fit, at
- * most 12, without their labels crowding: horizontal labels keep at least two character
- * widths apart, vertical ones two and a half line heights. Labels carry enough decimals to
+ * most 12, without their labels crowding: horizontal labels keep at least two figure widths
+ * ("00") apart, vertical ones two and a half line heights. Labels carry enough decimals to
  * tell neighbours apart; the title is "name (unit)" with the SI prefix chosen for the range.
  * A `time-utc` axis steps through {@link CALENDAR_STEPS} instead, at most 10 ticks.
  */
@@ -200,9 +200,8 @@ export function drawAxes(canvas: RgbaCanvas, plot: Rect, x: Axis, y: Axis, style
     canvas.line(plot.x - tick, py, plot.x - 2, py, style.frameColour, { widthPx: s });
     const w = textWidthPx(t.label, s);
     widest = Math.max(widest, w);
-    // Centre the label's cap height (7 of its 9 rows) on the tick.
-    const capH = FONT_METRICS.ascentPx * s;
-    canvas.text(t.label, plot.x - tick - gap - w, py - Math.floor(capH / 2), style.textColour, { scale: s });
+    // Centre the label's figures (cap height) on the tick.
+    canvas.text(t.label, plot.x - tick - gap - w, py - capMiddlePx(s), style.textColour, { scale: s });
   }
   const yTitleLength = textWidthPx(y.title, s);
   const yTitleX = plot.x - tick - 2 * gap - widest - lineH;

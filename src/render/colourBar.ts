@@ -1,6 +1,6 @@
 import { axisGapPx, positionPx, tickLengthPx, type Axis } from "./axes.js";
 import { rampColour, rampIndex } from "./colourRamp.js";
-import { FONT_METRICS, textHeightPx, textWidthPx } from "./font.js";
+import { capMiddlePx, textHeightPx, textWidthPx } from "./font.js";
 import type { Rect, Rgb, RgbaCanvas } from "./raster.js";
 
 /** Colours and size of a colour bar's text. */
@@ -43,7 +43,7 @@ export function drawColourBar(canvas: RgbaCanvas, bar: Rect, axis: Axis, style: 
     const py = Math.min(bar.y + bar.height - 1, Math.max(bar.y, Math.floor(positionPx(t.value, axis, bar.y, bar.height, true))));
     canvas.line(right + 1, py, right + tick, py, style.frameColour, { widthPx: s });
     widest = Math.max(widest, textWidthPx(t.label, s));
-    canvas.text(t.label, right + tick + gap, py - Math.floor((FONT_METRICS.ascentPx * s) / 2), style.textColour, { scale: s });
+    canvas.text(t.label, right + tick + gap, py - capMiddlePx(s), style.textColour, { scale: s });
   }
   const titleLength = textWidthPx(axis.title, s);
   canvas.text(axis.title, right + tick + 2 * gap + widest, bar.y + Math.floor((bar.height - titleLength) / 2), style.textColour, {

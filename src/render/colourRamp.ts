@@ -90,12 +90,18 @@ function inGamut(lab: Oklab): boolean {
   return oklabToLinearSrgb(lab).every((c) => c >= -eps && c <= 1 + eps);
 }
 
-function labFromLch(L: number, chroma: number, hueRad: number): Oklab {
+/** OKLab from OKLCh: lightness L, chroma, hue in radians (a = C·cos h, b = C·sin h; Ottosson 2020). */
+export function labFromLch(L: number, chroma: number, hueRad: number): Oklab {
   return [L, chroma * Math.cos(hueRad), chroma * Math.sin(hueRad)];
 }
 
-// Largest chroma inside the sRGB gamut at this lightness and hue, by bisection.
-function maxChromaInGamut(L: number, hueRad: number): number {
+/** Hue of the colour ramp at position t (0 … 1) along it, in radians: from 165° turning 235° to 400° (40°). */
+export function rampHueRad(t: number): number {
+  return ((RAMP_HUE0_DEG + RAMP_HUE_TURN_DEG * t) * Math.PI) / 180;
+}
+
+/** Largest OKLab chroma inside the sRGB gamut at lightness L and hue `hueRad`, by bisection (to 0.4 / 2^40). */
+export function maxChromaInGamut(L: number, hueRad: number): number {
   let lo = 0;
   let hi = 0.4;
   for (let i = 0; i < 40; i++) {
@@ -111,7 +117,7 @@ function buildRampOklab(): Float64Array {
   for (let i = 0; i < COLOUR_RAMP_SIZE; i++) {
     const t = i / (COLOUR_RAMP_SIZE - 1);
     const L = RAMP_L0 + (RAMP_L1 - RAMP_L0) * t;
-    const hueRad = ((RAMP_HUE0_DEG + RAMP_HUE_TURN_DEG * t) * Math.PI) / 180;
+    const hueRad = rampHueRad(t);
     const wanted = 0.05 + 0.09 * Math.sin(Math.PI * t);
     const chroma = Math.min(wanted, GAMUT_MARGIN * maxChromaInGamut(L, hueRad));
     const [, a, b] = labFromLch(L, chroma, hueRad);
@@ -128,12 +134,18 @@ function buildRampOklab(): Float64Array {
  */
 export const COLOUR_RAMP_OKLAB: Readonly<Float64Array> = buildRampOklab();
 
+/** An OKLab colour as 8-bit sRGB: linear components clamped to 0–1, encoded (IEC 61966-2-1), rounded. */
+export function oklabToSrgb8(lab: Oklab): Rgb {
+  const [r, g, b] = oklabToLinearSrgb(lab);
+  const encode = (c: number): number => Math.round(255 * srgbEncode(Math.min(1, Math.max(0, c))));
+  return [encode(r), encode(g), encode(b)];
+}
+
 function buildRampRgb(): Uint8Array {
   const rgb = new Uint8Array(COLOUR_RAMP_SIZE * 3);
   for (let i = 0; i < COLOUR_RAMP_SIZE; i++) {
     const lab: Oklab = [COLOUR_RAMP_OKLAB[i * 3] ?? 0, COLOUR_RAMP_OKLAB[i * 3 + 1] ?? 0, COLOUR_RAMP_OKLAB[i * 3 + 2] ?? 0];
-    const lin = oklabToLinearSrgb(lab);
-    for (let c = 0; c < 3; c++) rgb[i * 3 + c] = Math.round(255 * srgbEncode(Math.min(1, Math.max(0, lin[c] ?? 0))));
+    rgb.set(oklabToSrgb8(lab), i * 3);
   }
   return rgb;
 }

@@ -1,4 +1,4 @@
-import { FONT_METRICS, textHeightPx, textWidthPx } from "./font.js";
+import { textHeightPx, textWidthPx } from "./font.js";
 import type { Rgb, RgbaCanvas } from "./raster.js";
 
 /** The page style shared by every figure: a white page, dark ink, a grey frame. */
@@ -31,12 +31,19 @@ export function pagePaddingPx(textScale: number): number {
   return 8 * textScale;
 }
 
-/** `text`, shortened with "..." at the end so that it is at most `maxWidthPx` wide at `scale`. */
+/** `text`, shortened with "…" at the end so that it is at most `maxWidthPx` wide at `scale` (just "…" if nothing fits). */
 export function fitText(text: string, maxWidthPx: number, scale: number): string {
   if (textWidthPx(text, scale) <= maxWidthPx) return text;
   const chars = [...text];
-  const fit = Math.max(0, Math.floor((maxWidthPx / scale + 1) / FONT_METRICS.advancePx) - 3);
-  return `${chars.slice(0, fit).join("")}...`;
+  // Widths grow with the prefix: bisect for the longest prefix that fits with the ellipsis.
+  let lo = 0;
+  let hi = chars.length;
+  while (lo < hi) {
+    const mid = Math.ceil((lo + hi) / 2);
+    if (textWidthPx(`${chars.slice(0, mid).join("")}…`, scale) <= maxWidthPx) lo = mid;
+    else hi = mid - 1;
+  }
+  return `${chars.slice(0, lo).join("").trimEnd()}…`;
 }
 
 /**

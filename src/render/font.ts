@@ -1,186 +1,152 @@
 /**
- * The one bitmap font of iqaudit: a monospaced 5×9 pixel design of our own (7 rows above the
- * baseline, 2 below for descenders) covering printable ASCII (0x20–0x7E) plus ° µ ± ² · ×.
- * A character without a glyph is drawn as a hollow box. The cell is 6×9 px at scale 1 (one
- * blank column between characters); text is drawn at integer scale 1, 2 or 3.
+ * Figure text: IBM Plex Sans Regular (see fontFile.ts) drawn with anti-aliasing by our own
+ * coverage rasteriser (outlineRaster.ts). One glyph per code point from the font's cmap, pen
+ * advanced by the glyph's advance width; no kerning and no ligatures (labels are mostly numbers,
+ * and Plex's figures are tabular); a character the font lacks draws its .notdef box.
+ *
+ * Sizes go by a text scale step, as the figures' layouts do: the capital height is
+ * round(8 × 1.25^(scale − 1)) px, i.e. 8, 10 and 13 px at scales 1, 2 and 3 (a type scale of
+ * ratio 1.25), and the em is chosen so that flat capitals (H) are exactly that many pixels
+ * tall, their top and bottom edges on pixel boundaries. At scale 2 (tick labels of a figure
+ * 900 px wide or more) the em is 14.3 px. Rasterised glyphs are cached per (glyph, size,
+ * quarter-pixel phase of the pen), so only a process's first figure pays for them: a 1200 × 700
+ * line figure renders in 220–430 ms the first time (font loaded, glyphs rasterised) and 96 ms
+ * after, against 130–175 ms and 87 ms with the former bitmap font (src/bench/figureBench.ts).
  */
+import { figureFont } from "./fontFile.js";
+import { rasteriseOutline, type CoverageBitmap } from "./outlineRaster.js";
 
-/** Font metrics at scale 1, in pixels: advance per character, ink rows, rows above the baseline. */
-export const FONT_METRICS = {
-  /** Horizontal distance from one character's left edge to the next. */
-  advancePx: 6,
-  /** Columns of ink a glyph may use, starting at its left edge. */
-  glyphWidthPx: 5,
-  /** Rows of a cell: 7 above the baseline and 2 of descender. */
-  cellHeightPx: 9,
-  /** Rows above the baseline (cap height). */
-  ascentPx: 7,
-} as const;
+const CAP_HEIGHT_AT_SCALE_1_PX = 8;
+const SIZE_RATIO_PER_STEP = 1.25;
+// Pen positions are kept to a quarter pixel; each phase has its own cached bitmap.
+const PEN_PHASES = 4;
+// Ink that spills this little past the line box is not given a row of its own.
+const BOX_SLACK_PX = 0.1;
 
-// Each glyph: rows top to bottom separated by "|", "#" = ink. Seven rows sit above the
-// baseline; rows 8 and 9, when given, are the descender.
-const GLYPH_ROWS: Readonly<Record<string, string>> = {
-  " ": ".....|.....|.....|.....|.....|.....|.....",
-  "!": "..#..|..#..|..#..|..#..|..#..|.....|..#..",
-  '"': ".#.#.|.#.#.|.....|.....|.....|.....|.....",
-  "#": ".#.#.|.#.#.|#####|.#.#.|#####|.#.#.|.#.#.",
-  $: "..#..|.####|#.#..|.###.|..#.#|####.|..#..",
-  "%": "##...|##..#|...#.|..#..|.#...|#..##|...##",
-  "&": ".##..|#..#.|#.#..|.#...|#.#.#|#..#.|.##.#",
-  "'": "..#..|..#..|.....|.....|.....|.....|.....",
-  "(": "...#.|..#..|.#...|.#...|.#...|..#..|...#.",
-  ")": ".#...|..#..|...#.|...#.|...#.|..#..|.#...",
-  "*": ".....|..#..|#.#.#|.###.|#.#.#|..#..|.....",
-  "+": ".....|..#..|..#..|#####|..#..|..#..|.....",
-  ",": ".....|.....|.....|.....|.....|..#..|..#..|.#...",
-  "-": ".....|.....|.....|.###.|.....|.....|.....",
-  ".": ".....|.....|.....|.....|.....|.##..|.##..",
-  "/": "....#|....#|...#.|..#..|.#...|#....|#....",
-  "0": ".###.|#...#|#..##|#.#.#|##..#|#...#|.###.",
-  "1": "..#..|.##..|..#..|..#..|..#..|..#..|.###.",
-  "2": ".###.|#...#|....#|...#.|..#..|.#...|#####",
-  "3": "#####|...#.|..#..|...#.|....#|#...#|.###.",
-  "4": "...#.|..##.|.#.#.|#..#.|#####|...#.|...#.",
-  "5": "#####|#....|####.|....#|....#|#...#|.###.",
-  "6": "..##.|.#...|#....|####.|#...#|#...#|.###.",
-  "7": "#####|....#|...#.|..#..|.#...|.#...|.#...",
-  "8": ".###.|#...#|#...#|.###.|#...#|#...#|.###.",
-  "9": ".###.|#...#|#...#|.####|....#|...#.|.##..",
-  ":": ".....|.##..|.##..|.....|.##..|.##..|.....",
-  ";": ".....|.##..|.##..|.....|.##..|.##..|..#..|.#...",
-  "<": "...#.|..#..|.#...|#....|.#...|..#..|...#.",
-  "=": ".....|.....|#####|.....|#####|.....|.....",
-  ">": ".#...|..#..|...#.|....#|...#.|..#..|.#...",
-  "?": ".###.|#...#|....#|...#.|..#..|.....|..#..",
-  "@": ".###.|#...#|#.###|#.#.#|#.###|#....|.####",
-  A: ".###.|#...#|#...#|#####|#...#|#...#|#...#",
-  B: "####.|#...#|#...#|####.|#...#|#...#|####.",
-  C: ".###.|#...#|#....|#....|#....|#...#|.###.",
-  D: "###..|#..#.|#...#|#...#|#...#|#..#.|###..",
-  E: "#####|#....|#....|####.|#....|#....|#####",
-  F: "#####|#....|#....|####.|#....|#....|#....",
-  G: ".###.|#...#|#....|#.###|#...#|#...#|.####",
-  H: "#...#|#...#|#...#|#####|#...#|#...#|#...#",
-  I: ".###.|..#..|..#..|..#..|..#..|..#..|.###.",
-  J: "..###|...#.|...#.|...#.|...#.|#..#.|.##..",
-  K: "#...#|#..#.|#.#..|##...|#.#..|#..#.|#...#",
-  L: "#....|#....|#....|#....|#....|#....|#####",
-  M: "#...#|##.##|#.#.#|#.#.#|#...#|#...#|#...#",
-  N: "#...#|#...#|##..#|#.#.#|#..##|#...#|#...#",
-  O: ".###.|#...#|#...#|#...#|#...#|#...#|.###.",
-  P: "####.|#...#|#...#|####.|#....|#....|#....",
-  Q: ".###.|#...#|#...#|#...#|#.#.#|#..#.|.##.#",
-  R: "####.|#...#|#...#|####.|#.#..|#..#.|#...#",
-  S: ".####|#....|#....|.###.|....#|....#|####.",
-  T: "#####|..#..|..#..|..#..|..#..|..#..|..#..",
-  U: "#...#|#...#|#...#|#...#|#...#|#...#|.###.",
-  V: "#...#|#...#|#...#|#...#|#...#|.#.#.|..#..",
-  W: "#...#|#...#|#...#|#.#.#|#.#.#|#.#.#|.#.#.",
-  X: "#...#|#...#|.#.#.|..#..|.#.#.|#...#|#...#",
-  Y: "#...#|#...#|.#.#.|..#..|..#..|..#..|..#..",
-  Z: "#####|....#|...#.|..#..|.#...|#....|#####",
-  "[": ".###.|.#...|.#...|.#...|.#...|.#...|.###.",
-  "\\": "#....|#....|.#...|..#..|...#.|....#|....#",
-  "]": ".###.|...#.|...#.|...#.|...#.|...#.|.###.",
-  "^": "..#..|.#.#.|#...#|.....|.....|.....|.....",
-  _: ".....|.....|.....|.....|.....|.....|.....|#####",
-  "`": ".#...|..#..|.....|.....|.....|.....|.....",
-  a: ".....|.....|.###.|....#|.####|#...#|.####",
-  b: "#....|#....|####.|#...#|#...#|#...#|####.",
-  c: ".....|.....|.###.|#....|#....|#...#|.###.",
-  d: "....#|....#|.####|#...#|#...#|#...#|.####",
-  e: ".....|.....|.###.|#...#|#####|#....|.###.",
-  f: "..##.|.#..#|.#...|###..|.#...|.#...|.#...",
-  g: ".....|.....|.####|#...#|#...#|#...#|.####|....#|.###.",
-  h: "#....|#....|#.##.|##..#|#...#|#...#|#...#",
-  i: "..#..|.....|.##..|..#..|..#..|..#..|.###.",
-  j: "...#.|.....|..##.|...#.|...#.|...#.|...#.|#..#.|.##..",
-  k: "#....|#....|#..#.|#.#..|##...|#.#..|#..#.",
-  l: ".##..|..#..|..#..|..#..|..#..|..#..|.###.",
-  m: ".....|.....|##.#.|#.#.#|#.#.#|#.#.#|#.#.#",
-  n: ".....|.....|#.##.|##..#|#...#|#...#|#...#",
-  o: ".....|.....|.###.|#...#|#...#|#...#|.###.",
-  p: ".....|.....|####.|#...#|#...#|#...#|####.|#....|#....",
-  q: ".....|.....|.####|#...#|#...#|#...#|.####|....#|....#",
-  r: ".....|.....|#.##.|##..#|#....|#....|#....",
-  s: ".....|.....|.####|#....|.###.|....#|####.",
-  t: ".#...|.#...|###..|.#...|.#...|.#..#|..##.",
-  u: ".....|.....|#...#|#...#|#...#|#..##|.##.#",
-  v: ".....|.....|#...#|#...#|#...#|.#.#.|..#..",
-  w: ".....|.....|#...#|#...#|#.#.#|#.#.#|.#.#.",
-  x: ".....|.....|#...#|.#.#.|..#..|.#.#.|#...#",
-  y: ".....|.....|#...#|#...#|#...#|#...#|.####|....#|.###.",
-  z: ".....|.....|#####|...#.|..#..|.#...|#####",
-  "{": "...##|..#..|..#..|.#...|..#..|..#..|...##",
-  "|": "..#..|..#..|..#..|..#..|..#..|..#..|..#..",
-  "}": "##...|..#..|..#..|...#.|..#..|..#..|##...",
-  "~": ".....|.....|.#...|#.#.#|...#.|.....|.....",
-  "°": ".##..|#..#.|#..#.|.##..|.....|.....|.....",
-  "µ": ".....|.....|#...#|#...#|#...#|#..##|###.#|#....|#....",
-  "±": "..#..|..#..|#####|..#..|..#..|.....|#####",
-  "²": ".##..|...#.|..#..|.#...|.###.|.....|.....",
-  "·": ".....|.....|.....|..#..|.....|.....|.....",
-  "×": ".....|#...#|.#.#.|..#..|.#.#.|#...#|.....",
-};
-
-const MISSING_GLYPH = "#####|#...#|#...#|#...#|#...#|#...#|#####";
-
-// Characters that look the same as one we have: the minus sign and the micro sign.
-const ALIASES: Readonly<Record<string, string>> = { "\u2212": "-", "\u03bc": "µ" };
-
-/** One glyph as ink rows: `rows[r]` is a bitmask, bit (4 − c) set when column c (0 = left) has ink. */
-export interface Glyph {
-  readonly rows: readonly number[];
-  /** False for the hollow box that stands in for a character the font lacks. */
-  readonly defined: boolean;
+/** Vertical metrics of the text at one scale, in pixels; the box is ascentPx + descentPx tall. */
+export interface FontMetricsPx {
+  /** The em size the outlines are scaled to. */
+  readonly sizePx: number;
+  /** Height of capitals and figures above the baseline (a whole number). */
+  readonly capHeightPx: number;
+  readonly xHeightPx: number;
+  /** From the top of the text box to the baseline: the tallest printable ASCII ink, rounded up. */
+  readonly ascentPx: number;
+  /** From the baseline to the bottom of the box: the deepest printable ASCII descender, rounded up. */
+  readonly descentPx: number;
 }
 
-function parseGlyph(spec: string, defined: boolean): Glyph {
-  const rows = new Array<number>(FONT_METRICS.cellHeightPx).fill(0);
-  spec.split("|").forEach((row, r) => {
-    let bits = 0;
-    for (let c = 0; c < row.length; c++) if (row[c] === "#") bits |= 1 << (FONT_METRICS.glyphWidthPx - 1 - c);
-    rows[r] = bits;
-  });
-  return { rows, defined };
+const metricsCache = new Map<number, FontMetricsPx>();
+const glyphCache = new Map<string, CoverageBitmap>();
+let asciiInk: { yMax: number; yMin: number } | null = null;
+
+// The ink extent of printable ASCII (0x20–0x7E), in font units, y up.
+function asciiInkUnits(): { yMax: number; yMin: number } {
+  if (asciiInk === null) {
+    const font = figureFont();
+    let yMax = 0;
+    let yMin = 0;
+    for (let code = 0x21; code <= 0x7e; code++) {
+      const box = font.charToGlyph(String.fromCharCode(code)).getBoundingBox();
+      yMax = Math.max(yMax, box.y2);
+      yMin = Math.min(yMin, box.y1);
+    }
+    asciiInk = { yMax, yMin };
+  }
+  return asciiInk;
 }
 
-const GLYPHS = new Map<string, Glyph>(Object.entries(GLYPH_ROWS).map(([ch, spec]) => [ch, parseGlyph(spec, true)]));
-const MISSING = parseGlyph(MISSING_GLYPH, false);
-
-/** The glyph for one character (one UTF-16 code unit or code point); the hollow box if the font lacks it. */
-export function glyphFor(character: string): Glyph {
-  return GLYPHS.get(ALIASES[character] ?? character) ?? MISSING;
+/** Metrics at text scale `scale` (any positive number; the figures use 1, 2 and 3). */
+export function fontMetricsPx(scale: number): FontMetricsPx {
+  if (!(scale > 0) || !Number.isFinite(scale)) throw new RangeError(`text scale ${scale} must be a positive number`);
+  const cached = metricsCache.get(scale);
+  if (cached !== undefined) return cached;
+  const font = figureFont();
+  const { sCapHeight, sxHeight } = font.tables.os2;
+  const capHeightPx = Math.round(CAP_HEIGHT_AT_SCALE_1_PX * SIZE_RATIO_PER_STEP ** (scale - 1));
+  const pxPerUnit = capHeightPx / sCapHeight;
+  const ink = asciiInkUnits();
+  const metrics: FontMetricsPx = {
+    sizePx: font.unitsPerEm * pxPerUnit,
+    capHeightPx,
+    xHeightPx: sxHeight * pxPerUnit,
+    ascentPx: Math.ceil(ink.yMax * pxPerUnit - BOX_SLACK_PX),
+    descentPx: Math.ceil(-ink.yMin * pxPerUnit - BOX_SLACK_PX),
+  };
+  metricsCache.set(scale, metrics);
+  return metrics;
 }
 
-/** Width in pixels of `text` drawn at `scale`: characters × 6 × scale, less the trailing blank column. */
+/** Pen positions (px from the start, before rounding) of each code point of `text`, and the total advance. */
+function layout(text: string, sizePx: number): { glyphIndices: number[]; penPx: number[]; advancePx: number } {
+  const font = figureFont();
+  const pxPerUnit = sizePx / font.unitsPerEm;
+  const glyphIndices: number[] = [];
+  const penPx: number[] = [];
+  let pen = 0;
+  for (const ch of text) {
+    const glyph = font.charToGlyph(ch);
+    glyphIndices.push(glyph.index);
+    penPx.push(pen);
+    pen += glyph.advanceWidth * pxPerUnit;
+  }
+  return { glyphIndices, penPx, advancePx: pen };
+}
+
+/** True when the font has a glyph of its own for `character` (one code point). */
+export function hasGlyph(character: string): boolean {
+  return figureFont().charToGlyphIndex(character) !== 0;
+}
+
+/** Advance width of `text` at `scale`, in pixels, rounded up: the sum of its glyphs' advance widths. */
 export function textWidthPx(text: string, scale: number): number {
-  const count = [...text].length;
-  return count === 0 ? 0 : (count * FONT_METRICS.advancePx - 1) * scale;
+  return Math.ceil(layout(text, fontMetricsPx(scale).sizePx).advancePx);
 }
 
-/** Height in pixels of one line of text at `scale`, descenders included (9 × scale). */
+/** Height in pixels of the text box at `scale`: ascent plus descent (descenders included). */
 export function textHeightPx(scale: number): number {
-  return FONT_METRICS.cellHeightPx * scale;
+  const m = fontMetricsPx(scale);
+  return m.ascentPx + m.descentPx;
 }
 
 /**
- * Calls `plot(dx, dy)` for every ink pixel of `text` at `scale`, with (dx, dy) relative to the
- * top-left corner of the text's box, x to the right and y down. Drawing order is left to right.
+ * From the top of the text box to the middle of the capital height, in whole pixels: the offset
+ * that centres a label's figures on a tick at row y when the box's top is y − this.
  */
-export function forEachInkPixel(text: string, scale: number, plot: (dx: number, dy: number) => void): void {
-  let originX = 0;
-  for (const ch of text) {
-    const { rows } = glyphFor(ch);
-    for (let r = 0; r < rows.length; r++) {
-      const bits = rows[r] ?? 0;
-      if (bits === 0) continue;
-      for (let c = 0; c < FONT_METRICS.glyphWidthPx; c++) {
-        if ((bits & (1 << (FONT_METRICS.glyphWidthPx - 1 - c))) === 0) continue;
-        for (let sy = 0; sy < scale; sy++)
-          for (let sx = 0; sx < scale; sx++) plot(originX + c * scale + sx, r * scale + sy);
+export function capMiddlePx(scale: number): number {
+  const m = fontMetricsPx(scale);
+  return m.ascentPx - Math.floor(m.capHeightPx / 2);
+}
+
+// The glyph's coverage with its pen at x = phase (0 ≤ phase < 1), baseline at y = 0.
+function glyphBitmap(glyphIndex: number, sizePx: number, phase: number): CoverageBitmap {
+  const key = `${glyphIndex}|${sizePx}|${phase}`;
+  let bitmap = glyphCache.get(key);
+  if (bitmap === undefined) {
+    bitmap = rasteriseOutline(figureFont().glyphs.get(glyphIndex).getPath(phase, 0, sizePx).commands);
+    glyphCache.set(key, bitmap);
+  }
+  return bitmap;
+}
+
+/**
+ * Calls `plot(dx, dy, coverage)` for every pixel that `text` at `scale` inks, with (dx, dy)
+ * relative to the top-left corner of its box (baseline at dy = ascentPx) and coverage in 0–1,
+ * the fraction of the pixel inside the glyph outline. Glyphs come left to right; ink may reach
+ * a pixel or so left of dx = 0 where a glyph overhangs its pen position.
+ */
+export function forEachInkPixel(text: string, scale: number, plot: (dx: number, dy: number, coverage: number) => void): void {
+  const metrics = fontMetricsPx(scale);
+  const { glyphIndices, penPx } = layout(text, metrics.sizePx);
+  for (let g = 0; g < glyphIndices.length; g++) {
+    const pen = Math.round((penPx[g] ?? 0) * PEN_PHASES) / PEN_PHASES;
+    const originX = Math.floor(pen);
+    const bitmap = glyphBitmap(glyphIndices[g] ?? 0, metrics.sizePx, pen - originX);
+    for (let r = 0; r < bitmap.height; r++) {
+      for (let c = 0; c < bitmap.width; c++) {
+        const coverage = bitmap.coverage[r * bitmap.width + c] ?? 0;
+        if (coverage > 0) plot(originX + bitmap.left + c, metrics.ascentPx + bitmap.top + r, coverage);
       }
     }
-    originX += FONT_METRICS.advancePx * scale;
   }
 }

@@ -1,5 +1,6 @@
 // The public surface of src/render: re-exports only.
-export { FONT_METRICS, glyphFor, textWidthPx, textHeightPx, forEachInkPixel, type Glyph } from "./font.js";
+export { fontMetricsPx, hasGlyph, textWidthPx, textHeightPx, capMiddlePx, forEachInkPixel, type FontMetricsPx } from "./font.js";
+export { rasteriseOutline, SUBSCANLINES, type CoverageBitmap, type OutlineCommand } from "./outlineRaster.js";
 export { RgbaCanvas, measureText, type Rgb, type Rect, type LineStyle, type TextStyle } from "./raster.js";
 export {
   srgbEncode,
@@ -13,6 +14,10 @@ export {
   COLOUR_RAMP_SIZE,
   COLOUR_RAMP_OKLAB,
   COLOUR_RAMP_RGB,
+  labFromLch,
+  rampHueRad,
+  maxChromaInGamut,
+  oklabToSrgb8,
   type Oklab,
   type LinearRgb,
 } from "./colourRamp.js";
@@ -77,6 +82,7 @@ export {
 } from "./lineFigure.js";
 export { pointMarkerHalfPx, type PointSeries } from "./pointSeries.js";
 export { drawMarkerLines } from "./markerLines.js";
+export { SERIES_PALETTE_OKLAB, SERIES_PALETTE_RGB } from "./seriesPalette.js";
 export {
   renderConstellation,
   CONSTELLATION_GRID_CELLS,

@@ -1,5 +1,5 @@
 import { fitText, PAGE_STYLE, pagePaddingPx } from "./figureFrame.js";
-import { textHeightPx, textWidthPx } from "./font.js";
+import { capMiddlePx, textHeightPx, textWidthPx } from "./font.js";
 import type { RgbaCanvas } from "./raster.js";
 
 /** One legend entry: its label and how to draw its swatch. */
@@ -28,7 +28,7 @@ export function drawLegendRow(canvas: RgbaCanvas, items: readonly LegendItem[], 
       legendX = pad;
       row += lineH + 3 * s;
     }
-    item.drawSwatch(legendX, row + Math.floor((7 * s) / 2), swatchPx);
+    item.drawSwatch(legendX, row + capMiddlePx(s), swatchPx);
     canvas.text(label, legendX + swatchPx + 4 * s, row, PAGE_STYLE.inkColour, { scale: s });
     legendX += itemWidth + 14 * s;
   }

@@ -8,6 +8,7 @@ import { drawPolyline } from "./polyline.js";
 import { checkPointSeries, drawPoint, drawPointSeries, joinLineWidthPx, pointSeriesValues, type PointSeries } from "./pointSeries.js";
 import { RgbaCanvas, type Rgb } from "./raster.js";
 import { drawMarkerLines } from "./markerLines.js";
+import { SERIES_PALETTE_RGB } from "./seriesPalette.js";
 import type { FigureLayout } from "./spectrogramFigure.js";
 
 /** One curve: points (xValues[i], yValues[i]) joined in order; a NaN in either breaks the line. */
@@ -81,14 +82,8 @@ export interface LineFigureInput {
   readonly heightPx: number;
 }
 
-/** Default series colours, in order: blue, burnt orange, green, plum, slate. */
-export const SERIES_COLOURS: readonly Rgb[] = [
-  [24, 86, 160],
-  [205, 92, 20],
-  [30, 130, 76],
-  [140, 50, 140],
-  [96, 100, 108],
-];
+/** Default series colours, in order: plum, teal, vermilion, indigo, cerulean, lilac (seriesPalette.ts). */
+export const SERIES_COLOURS: readonly Rgb[] = SERIES_PALETTE_RGB;
 
 /** Default colour of marker lines: a deep red. */
 export const MARKER_COLOUR: Rgb = [178, 34, 52];

@@ -21,7 +21,7 @@ export interface LineStyle {
 
 /** Options of {@link RgbaCanvas.text}. */
 export interface TextStyle {
-  /** Integer pixel scale of the 5×9 font (default 1). */
+  /** Text scale step (default 1): capitals 8, 10, 13 px tall at 1, 2, 3 (see font.ts). */
   readonly scale?: number;
   /** 0 = left to right; 90 = rotated a quarter turn anticlockwise, reading bottom to top. */
   readonly rotationDeg?: 0 | 90;
@@ -78,6 +78,23 @@ export class RgbaCanvas {
     this.data[i] = colour[0];
     this.data[i + 1] = colour[1];
     this.data[i + 2] = colour[2];
+    this.data[i + 3] = 255;
+  }
+
+  /**
+   * Mixes `colour` into one pixel with weight `alpha` (0–1), inside the clip: each 8-bit sRGB
+   * component becomes old + alpha·(new − old), rounded. Blending the encoded values rather than
+   * linear light keeps small dark text on a light page from looking thin, as unhinted text
+   * blended in linear light does.
+   */
+  blendPixel(x: number, y: number, colour: Rgb, alpha: number): void {
+    if (x < this.clipX0 || x >= this.clipX1 || y < this.clipY0 || y >= this.clipY1 || !(alpha > 0)) return;
+    const a = Math.min(1, alpha);
+    const i = (y * this.width + x) * 4;
+    for (let c = 0; c < 3; c++) {
+      const old = this.data[i + c] ?? 0;
+      this.data[i + c] = Math.round(old + a * (colour[c]! - old));
+    }
     this.data[i + 3] = 255;
   }
 
@@ -153,9 +170,9 @@ export class RgbaCanvas {
   }
 
   /**
-   * Draws `text` in the 5×9 font with the top-left corner of its box at (x, y). Unrotated, the
-   * box is textWidthPx × textHeightPx; rotated 90° it is textHeightPx wide and textWidthPx tall,
-   * and the first character sits at the bottom.
+   * Draws `text` anti-aliased (font.ts) with the top-left corner of its box at (x, y), the
+   * baseline ascentPx below it. Unrotated, the box is textWidthPx × textHeightPx; rotated 90° it
+   * is textHeightPx wide and textWidthPx tall, and the first character sits at the bottom.
    */
   text(text: string, x: number, y: number, colour: Rgb, style: TextStyle = {}): void {
     const scale = style.scale ?? 1;
@@ -163,9 +180,9 @@ export class RgbaCanvas {
     const top = Math.round(y);
     if (style.rotationDeg === 90) {
       const lengthPx = textWidthPx(text, scale);
-      forEachInkPixel(text, scale, (dx, dy) => this.setPixel(left + dy, top + lengthPx - 1 - dx, colour));
+      forEachInkPixel(text, scale, (dx, dy, a) => this.blendPixel(left + dy, top + lengthPx - 1 - dx, colour, a));
     } else {
-      forEachInkPixel(text, scale, (dx, dy) => this.setPixel(left + dx, top + dy, colour));
+      forEachInkPixel(text, scale, (dx, dy, a) => this.blendPixel(left + dx, top + dy, colour, a));
     }
   }
 }

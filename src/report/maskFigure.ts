@@ -4,7 +4,7 @@
  * line, the reference level (0 dB) and the noise's reading marked, every span outside the mask
  * shaded, and the worst point labelled with its margin.
  */
-import { renderLineFigure, type MarkerLine, type PointNote, type ShadedSpan } from "../render/index.js";
+import { renderLineFigure, SERIES_COLOURS, type MarkerLine, type PointNote, type ShadedSpan } from "../render/index.js";
 import type { CheckOutcome, MaskReading } from "../licence/index.js";
 import type { CheckReport } from "./checkReport.js";
 import { formatHz } from "./format.js";
@@ -20,6 +20,8 @@ export interface MaskFigureInput {
 
 const VIOLATION_SHADE: [number, number, number] = [250, 205, 205];
 const MASK_COLOUR: [number, number, number] = [178, 34, 52];
+// The reference line takes the palette's second colour (the measured levels take the first).
+const REFERENCE_COLOUR = SERIES_COLOURS[1] ?? MASK_COLOUR;
 
 export function maskFigure(input: MaskFigureInput): Buffer {
   const m = input.outcome.mask;
@@ -35,7 +37,7 @@ export function maskFigure(input: MaskFigureInput): Buffer {
     notes.push({ x: w.offsetHz, y: w.levelDb, text: `worst ${formatHz(w.offsetHz)}: margin ${w.marginDb >= 0 ? "+" : ""}${w.marginDb.toFixed(1)} dB` });
   }
   const markers: MarkerLine[] = [
-    { orientation: "horizontal", value: 0, label: `reference ${r.referenceDbfs.toFixed(1)} dBFS (${r.reference})`, colour: [30, 130, 76] },
+    { orientation: "horizontal", value: 0, label: `reference ${r.referenceDbfs.toFixed(1)} dBFS (${r.reference})`, colour: REFERENCE_COLOUR },
     { orientation: "horizontal", value: r.noiseDb, label: "noise reading", colour: [96, 100, 108] },
   ];
   const lowest = Math.min(r.noiseDb - 10, ...allowed.filter((v) => Number.isFinite(v)).map((v) => v - 5));

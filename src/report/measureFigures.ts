@@ -4,8 +4,13 @@
  * time with the peak lines. Numbers in, PNG bytes out; the caller writes them.
  */
 import { binFrequencyHz, powerToDb, type WelchPsd } from "../dsp/index.js";
-import { renderConstellation, renderHistogram, renderLineFigure, type MarkerLine } from "../render/index.js";
+import { renderConstellation, renderHistogram, renderLineFigure, SERIES_COLOURS, type MarkerLine, type Rgb } from "../render/index.js";
 import { formatHz } from "./format.js";
+
+// Marker colours beside the PSD (series colour 0): the palette's second and third, and a neutral grey.
+const CARRIER_COLOUR: Rgb = SERIES_COLOURS[1] ?? [0, 0, 0];
+const X_DB_COLOUR: Rgb = SERIES_COLOURS[2] ?? [0, 0, 0];
+const NOISE_FLOOR_COLOUR: Rgb = [96, 100, 108];
 
 export interface SpectrumFigureInput {
   readonly title: string;
@@ -45,12 +50,12 @@ export function spectrumFigure(input: SpectrumFigureInput): Buffer {
   if (input.lowerEdgeHz !== null) markers.push({ orientation: "vertical", value: base + input.lowerEdgeHz, label: "99 % OBW lower" });
   if (input.upperEdgeHz !== null) markers.push({ orientation: "vertical", value: base + input.upperEdgeHz, label: "99 % OBW upper" });
   if (input.carrierOffsetHz !== null) {
-    markers.push({ orientation: "vertical", value: base + input.carrierOffsetHz, label: "carrier", colour: [30, 130, 76] });
+    markers.push({ orientation: "vertical", value: base + input.carrierOffsetHz, label: "carrier", colour: CARRIER_COLOUR });
   }
   if (input.xDbLevelDbfsPerHz !== null) {
-    markers.push({ orientation: "horizontal", value: input.xDbLevelDbfsPerHz, label: `${input.xDb} dB below peak`, colour: [205, 92, 20] });
+    markers.push({ orientation: "horizontal", value: input.xDbLevelDbfsPerHz, label: `${input.xDb} dB below peak`, colour: X_DB_COLOUR });
   }
-  markers.push({ orientation: "horizontal", value: input.noiseFloorDbfsPerHz, label: "noise floor", colour: [96, 100, 108] });
+  markers.push({ orientation: "horizontal", value: input.noiseFloorDbfsPerHz, label: "noise floor", colour: NOISE_FLOOR_COLOUR });
   const png = renderLineFigure({
     title: `PSD of the channel: ${input.title}`,
     subtitle: `Welch ${psd.fftLength}-point ${psd.window}, ${psd.segmentCount} segments, RBW ${formatHz(psd.enbwHz)}, ` +
