@@ -12,6 +12,7 @@ import { parseCount, parseFftLength, parseQuantity } from "./cli/quantity.js";
 import { clearProgressLine, createProgress, lazyProgress } from "./cli/progress.js";
 import { oneLine } from "./cli/errorLine.js";
 import { CAUTIONS } from "./cli/cautions.js";
+import { optionDescription, usageSubject } from "./cli/helpFormat.js";
 import { inspectCommand } from "./commands/inspect.js";
 import { spectrogramCommand, SPECTROGRAM_DEFAULTS } from "./commands/spectrogram.js";
 import { demoCommand } from "./commands/demo.js";
@@ -42,18 +43,31 @@ function warn(lines: readonly string[]): void {
   for (const line of lines) process.stderr.write(`${oneLine(`iqaudit: warning: ${line}`)}\n`);
 }
 
+/** One example a command, on the bundled samples (samples/README.md). */
+const EXAMPLES = [
+  "Examples",
+  "  iqaudit demo -o iqaudit-demo",
+  "  iqaudit inspect samples/quay-links.sigmf-meta",
+  "  iqaudit spectrogram samples/ostrel-bay-survey_165.2MHz_1Msps.cu8 -o survey.png",
+  "  iqaudit measure samples/ostrel-bay-survey_165.2MHz_1Msps.cu8 --channel 165.05M:12.5k --nominal 165.05M -o talkback",
+  "  iqaudit check samples/launch-channel_164.975MHz.wav --center 164.975M --licence samples/launch-channel.licence.json -o launch-check",
+  "  iqaudit survey samples/ostrel-bay-survey_165.2MHz_1Msps.cu8 -o survey",
+  "  iqaudit archive add launch-check --tag launch && iqaudit archive list --tag launch",
+].join("\n");
+
 function program(): Command {
   const root = new Command("iqaudit")
     .description(
       "Measure radio emissions from IQ captures (raw cu8/ci8/ci16/cf32/cf64, WAV incl. RF64, SigMF): " +
-        "what the file is and whether it is healthy (inspect), the measurement of one emission (measure), " +
-        "a check of a transmitter against its licence (check), triage of every emission of a wideband capture " +
-        "(survey) and its spectrogram. An archive of reports follows in a later version.",
+        "what the file is and whether it is healthy (inspect), its picture (spectrogram), the measurement of one " +
+        "emission (measure), a check of a transmitter against its licence (check), triage of every emission of a " +
+        "wideband capture (survey), a local archive of the reports (archive), and the bundled sample scenario (demo).",
     )
+    .configureHelp({ optionDescription })
     .version(TOOL_VERSION, "-V, --version", "print the version")
     .option("-q, --quiet", "no progress display on stderr (warnings are still shown)")
     .helpOption("-h, --help", "explain a command: iqaudit <command> --help")
-    .addHelpText("after", `\nExamples\n  iqaudit demo\n  iqaudit inspect capture.cf32 --rate 2.4M --center 156.8M\n  iqaudit spectrogram survey.sigmf-meta -o survey.png\n\n${CAUTIONS}\n`);
+    .addHelpText("after", `\n${EXAMPLES}\n\n${CAUTIONS}\n`);
   const quiet = (): boolean => (root.opts() as GlobalFlags).quiet === true;
 
   addCaptureOptions(
@@ -64,7 +78,7 @@ function program(): Command {
   )
     .option("--json", "print the report as one JSON document on stdout (schema iqaudit/inspect/1)")
     .option("--fft <n>", "Welch segment length for the PSD, a power of two", "4096")
-    .addHelpText("after", "\nFigures and methods: docs/methods.md. Results are indicative; see iqaudit --help for cautions.")
+    .addHelpText("after", "\nFigures and methods: docs/methods.md.")
     .action(async (path: string, flags: RawCaptureFlags & { json?: boolean; fft: string }) => {
       const progress = createProgress(`inspect ${path}`, !quiet());
       const report = await inspectCommand(path, {
@@ -89,7 +103,6 @@ function program(): Command {
     .option("--db-range <min:max>", "colour scale in dBFS/Hz, e.g. -150:-90 (default: from the noise floor to the peak)")
     .addOption(new Option("--reduce <how>", "combine the frames of a row by their mean or their maximum").choices(["mean", "max"]).default("mean"))
     .option("--json", "print a JSON summary of what was written on stdout")
-    .addHelpText("after", "\nResults are indicative; see iqaudit --help for cautions.")
     .action(
       async (
         path: string,
@@ -193,8 +206,7 @@ function program(): Command {
   archiveAddOptions(root.commands[root.commands.length - 1] as Command)
     .addHelpText(
       "after",
-      "\nThe detection threshold follows from --pfa and the chi-square law of averaged periodograms (docs/methods.md).\n" +
-        "Results are indicative: the licence and local regulation decide what applies; see iqaudit --help for cautions.",
+      "\nThe detection threshold follows from --pfa and the chi-square law of averaged periodograms (docs/methods.md).",
     )
     .action(
       async (
@@ -456,8 +468,7 @@ function parseDbRange(text: string): { minDb: number; maxDb: number } {
 /** Commander's own messages ("error: unknown option '--x'") as one contract line. */
 function usageLine(e: CommanderError): string {
   const text = e.message.replace(/^error:\s*/i, "").split("\n")[0] as string;
-  const quoted = /'([^']+)'/.exec(text);
-  const subject = quoted ? ((quoted[1] as string).split(" ")[0] as string) : "usage";
+  const subject = usageSubject(text);
   return `iqaudit: ${subject}: ${text} (see iqaudit --help)`;
 }
 
@@ -485,6 +496,12 @@ export async function main(argv: readonly string[]): Promise<number> {
     for (const sub of c.commands) quietly(sub);
   };
   quietly(cli);
+  // A bare `iqaudit` asks what the tool does: the help on stdout, exit 0 (commander would print it
+  // on stderr as an error).
+  if (argv.length <= 2) {
+    cli.outputHelp();
+    return 0;
+  }
   try {
     ranExitCode = 0;
     await cli.parseAsync(argv as string[], { from: "node" });
