@@ -22,6 +22,7 @@ import { measureText } from "./report/measureText.js";
 import { surveyCommand } from "./commands/survey.js";
 import { surveyMarkdown } from "./report/index.js";
 import { MEASURE_MODES, type MeasureMode } from "./analysis/measureEmission.js";
+import type { ChannelRequest } from "./analysis/channelRequest.js";
 import { parseOutPath, writeStdout } from "./cli/stdout.js";
 import { removeTemporaries } from "./report/index.js";
 import { checkCommand } from "./commands/check.js";
@@ -137,7 +138,7 @@ function program(): Command {
           "FSK shift, OOK duty cycle, emission designator; writes a report folder with --out",
       ),
   )
-    .option("--channel <offset:width>", "measure the emission in this channel, e.g. 12.5k:25k (offset from the capture centre : width), default the strongest")
+    .option("--channel <centre:width>", "measure the emission in this channel: its centre as an offset from the capture centre (12.5k:25k) or, with the capture's centre known, as an absolute frequency (164.85M:25k); default the emission nearest --nominal, else the strongest")
     .option("--nominal <Hz>", "assigned (nominal) carrier frequency, for the error in ppm; needs --center")
     .option("--reference-ppm <u>", "uncertainty of the receiver's frequency reference, ppm (k = 2), added to the carrier's uncertainty; without it the report says it is not included")
     .option("--xdb <dB>", "level below the spectral peak for the x-dB bandwidth", "26")
@@ -166,7 +167,7 @@ function program(): Command {
         const progress = createProgress(`measure ${path}`, !quiet());
         const result = await measureCommand(path, {
           capture: captureArgs(flags),
-          channel: flags.channel === undefined ? undefined : parseChannel(flags.channel),
+          channelAsGiven: flags.channel === undefined ? undefined : parseChannel(flags.channel),
           nominalHz: flags.nominal === undefined ? undefined : parseQuantity("--nominal", flags.nominal, { unit: "Hz", min: 0 }),
           referencePpm: flags.referencePpm === undefined ? undefined : parseQuantity("--reference-ppm", flags.referencePpm, { unit: "none", min: 0 }),
           xDb: parseQuantity("--xdb", flags.xdb, { unit: "none", min: 0 }),
@@ -438,11 +439,11 @@ function addArchiveCommands(root: Command): void {
     });
 }
 
-function parseChannel(text: string): { offsetHz: number; widthHz: number } {
+function parseChannel(text: string): ChannelRequest {
   const parts = text.split(":");
-  if (parts.length !== 2) throw new UsageError("--channel", `'${text}' is not OFFSET:WIDTH in Hz, e.g. 12.5k:25k`);
+  if (parts.length !== 2) throw new UsageError("--channel", `'${text}' is not CENTRE:WIDTH in Hz, e.g. 12.5k:25k (offset) or 164.85M:25k (absolute)`);
   return {
-    offsetHz: parseQuantity("--channel", parts[0] as string, { unit: "Hz" }),
+    centreHz: parseQuantity("--channel", parts[0] as string, { unit: "Hz" }),
     widthHz: parseQuantity("--channel", parts[1] as string, { unit: "Hz", min: 0 }),
   };
 }
