@@ -99,6 +99,7 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
     `| --- | --- |`,
     `| File | \`${c.path}\` |`,
     `| SHA-256 | \`${c.sha256}\` |`,
+    ...(c.metadataSha256 === null ? [] : [`| SHA-256 of the .sigmf-meta | \`${c.metadataSha256}\` |`]),
     `| Format | ${c.container}, ${c.format} |`,
     `| Sample rate | ${formatRate(c.sampleRateHz)} |`,
     `| Centre | ${c.centerHz === null ? "unknown" : formatHz(c.centerHz)}${c.ppm !== 0 ? `, receiver clock corrected by ${c.ppm} ppm` : ""} |`,
