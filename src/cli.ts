@@ -139,7 +139,7 @@ function program(): Command {
       ),
   )
     .option("--channel <centre:width>", "measure the emission in this channel: its centre as an offset from the capture centre (12.5k:25k) or, with the capture's centre known, as an absolute frequency (164.85M:25k); default the emission nearest --nominal, else the strongest")
-    .option("--nominal <Hz>", "assigned (nominal) carrier frequency, for the error in ppm; needs --center")
+    .option("--nominal <Hz>", "assigned (nominal) carrier frequency, for the error in ppm; without --channel the emission nearest it is measured; needs --center")
     .option("--reference-ppm <u>", "uncertainty of the receiver's frequency reference, ppm (k = 2), added to the carrier's uncertainty; without it the report says it is not included")
     .option("--xdb <dB>", "level below the spectral peak for the x-dB bandwidth", "26")
     .option("--audio-bw <Hz>", "audio low-pass before FM peak deviation and AM depth (clicks of noise are removed)", "3k")
