@@ -499,7 +499,7 @@ export async function main(argv: readonly string[]): Promise<number> {
   quietly(cli);
   // A bare `iqaudit` asks what the tool does: the help on stdout, exit 0 (commander would print it
   // on stderr as an error).
-  if (argv.length <= 2) {
+  if (argv.slice(2).every((a) => a === "-q" || a === "--quiet")) {
     cli.outputHelp();
     return 0;
   }

@@ -55,8 +55,11 @@ describe("a bare iqaudit", () => {
     expect(r.stdout).not.toContain("(outputHelp)");
   });
 
-  it("is the same text as iqaudit --help", () => {
+  it("is the same text as iqaudit --help, also with only the global -q", () => {
     expect(r.stdout).toBe(runCli(["--help"]).stdout);
+    const q = runCli(["-q"]);
+    expect(q.status, q.stderr).toBe(0);
+    expect(q.stdout).toBe(r.stdout);
   });
 });
 
