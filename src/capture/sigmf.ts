@@ -161,19 +161,23 @@ function readAnnotations(annotations: Json | undefined, offset: number, fail: (p
     return [];
   }
   if (!Array.isArray(annotations)) return fail(`has "annotations" that is ${describe(annotations)}, not an array`);
-  return annotations.map((a, k) => {
+  return annotations.flatMap((a, k) => {
     if (!isObject(a)) return fail(`has annotations[${k}] that is ${describe(a)}, not an object`);
     const f = new Fields(a, `annotations[${k}]`, fail);
     const start = f.integer("core:sample_start");
-    if (start === undefined) return fail(`has no core:sample_start in annotations[${k}] (SigMF requires it)`);
-    return {
+    if (start === undefined) {
+      // Required by SigMF but not needed to read the samples: a warning, and the annotation is not listed.
+      warnings.push(`annotations[${k}] of ${metaPath} has no core:sample_start, which SigMF requires; it is not listed.`);
+      return [];
+    }
+    return [{
       sampleStart: start >= offset ? start - offset : start,
       sampleCount: f.integer("core:sample_count") ?? null,
       lowerFrequencyHz: f.number("core:freq_lower_edge") ?? null,
       upperFrequencyHz: f.number("core:freq_upper_edge") ?? null,
       label: f.string("core:label") ?? null,
       comment: f.string("core:comment") ?? null,
-    };
+    }];
   });
 }
 
