@@ -493,16 +493,13 @@ export async function main(argv: readonly string[]): Promise<number> {
   const cli = program();
   const quietly = (c: Command): void => {
     c.exitOverride();
-    c.configureOutput({ outputError: () => undefined });
+    // A bare `iqaudit` (or `iqaudit archive`) asks what the tool does: commander prints the help
+    // through writeErr as an error ("commander.help"); it goes to stdout and the exit is 0. Errors
+    // themselves go through outputError, silenced here and printed by main as one line.
+    c.configureOutput({ outputError: () => undefined, writeErr: (text) => process.stdout.write(text) });
     for (const sub of c.commands) quietly(sub);
   };
   quietly(cli);
-  // A bare `iqaudit` asks what the tool does: the help on stdout, exit 0 (commander would print it
-  // on stderr as an error).
-  if (argv.slice(2).every((a) => a === "-q" || a === "--quiet")) {
-    cli.outputHelp();
-    return 0;
-  }
   try {
     ranExitCode = 0;
     await cli.parseAsync(argv as string[], { from: "node" });
@@ -510,7 +507,7 @@ export async function main(argv: readonly string[]): Promise<number> {
   } catch (e) {
     clearProgressLine();
     if (e instanceof CommanderError) {
-      if (e.exitCode === 0) return 0; // --help, --version
+      if (e.exitCode === 0 || e.code === "commander.help") return 0; // --help, --version, a command left out
       process.stderr.write(`${oneLine(usageLine(e))}\n`);
       return 2;
     }

@@ -61,6 +61,13 @@ describe("a bare iqaudit", () => {
     expect(q.status, q.stderr).toBe(0);
     expect(q.stdout).toBe(r.stdout);
   });
+
+  it("likewise a bare iqaudit archive prints the archive's help on stdout and exits 0", () => {
+    const a = runCli(["archive"]);
+    expect(a.status, a.stderr).toBe(0);
+    expect(a.stderr).toBe("");
+    expect(a.stdout).toBe(runCli(["archive", "--help"]).stdout);
+  });
 });
 
 describe("the top-level help", () => {
