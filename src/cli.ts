@@ -12,6 +12,7 @@ import { parseCount, parseFftLength, parseQuantity } from "./cli/quantity.js";
 import { clearProgressLine, createProgress, lazyProgress } from "./cli/progress.js";
 import { oneLine } from "./cli/errorLine.js";
 import { CAUTIONS } from "./cli/cautions.js";
+import { optionDescription, usageSubject } from "./cli/helpFormat.js";
 import { inspectCommand } from "./commands/inspect.js";
 import { spectrogramCommand, SPECTROGRAM_DEFAULTS } from "./commands/spectrogram.js";
 import { demoCommand } from "./commands/demo.js";
@@ -21,6 +22,7 @@ import { measureText } from "./report/measureText.js";
 import { surveyCommand } from "./commands/survey.js";
 import { surveyMarkdown } from "./report/index.js";
 import { MEASURE_MODES, type MeasureMode } from "./analysis/measureEmission.js";
+import type { ChannelRequest } from "./analysis/channelRequest.js";
 import { parseOutPath, writeStdout } from "./cli/stdout.js";
 import { removeTemporaries } from "./report/index.js";
 import { checkCommand } from "./commands/check.js";
@@ -42,18 +44,31 @@ function warn(lines: readonly string[]): void {
   for (const line of lines) process.stderr.write(`${oneLine(`iqaudit: warning: ${line}`)}\n`);
 }
 
+/** One example a command, on the bundled samples (samples/README.md). */
+const EXAMPLES = [
+  "Examples",
+  "  iqaudit demo -o iqaudit-demo",
+  "  iqaudit inspect samples/quay-links.sigmf-meta",
+  "  iqaudit spectrogram samples/ostrel-bay-survey_165.2MHz_1Msps.cu8 -o survey.png",
+  "  iqaudit measure samples/ostrel-bay-survey_165.2MHz_1Msps.cu8 --channel 165.05M:12.5k --nominal 165.05M -o talkback",
+  "  iqaudit check samples/launch-channel_164.975MHz.wav --center 164.975M --licence samples/launch-channel.licence.json -o launch-check",
+  "  iqaudit survey samples/ostrel-bay-survey_165.2MHz_1Msps.cu8 -o survey",
+  "  iqaudit archive add launch-check --tag launch && iqaudit archive list --tag launch",
+].join("\n");
+
 function program(): Command {
   const root = new Command("iqaudit")
     .description(
       "Measure radio emissions from IQ captures (raw cu8/ci8/ci16/cf32/cf64, WAV incl. RF64, SigMF): " +
-        "what the file is and whether it is healthy (inspect), the measurement of one emission (measure), " +
-        "a check of a transmitter against its licence (check), triage of every emission of a wideband capture " +
-        "(survey) and its spectrogram. An archive of reports follows in a later version.",
+        "what the file is and whether it is healthy (inspect), its picture (spectrogram), the measurement of one " +
+        "emission (measure), a check of a transmitter against its licence (check), triage of every emission of a " +
+        "wideband capture (survey), a local archive of the reports (archive), and the bundled sample scenario (demo).",
     )
+    .configureHelp({ optionDescription })
     .version(TOOL_VERSION, "-V, --version", "print the version")
     .option("-q, --quiet", "no progress display on stderr (warnings are still shown)")
     .helpOption("-h, --help", "explain a command: iqaudit <command> --help")
-    .addHelpText("after", `\nExamples\n  iqaudit demo\n  iqaudit inspect capture.cf32 --rate 2.4M --center 156.8M\n  iqaudit spectrogram survey.sigmf-meta -o survey.png\n\n${CAUTIONS}\n`);
+    .addHelpText("after", `\n${EXAMPLES}\n\n${CAUTIONS}\n`);
   const quiet = (): boolean => (root.opts() as GlobalFlags).quiet === true;
 
   addCaptureOptions(
@@ -64,7 +79,7 @@ function program(): Command {
   )
     .option("--json", "print the report as one JSON document on stdout (schema iqaudit/inspect/1)")
     .option("--fft <n>", "Welch segment length for the PSD, a power of two", "4096")
-    .addHelpText("after", "\nFigures and methods: docs/methods.md. Results are indicative; see iqaudit --help for cautions.")
+    .addHelpText("after", "\nFigures and methods: docs/methods.md.")
     .action(async (path: string, flags: RawCaptureFlags & { json?: boolean; fft: string }) => {
       const progress = createProgress(`inspect ${path}`, !quiet());
       const report = await inspectCommand(path, {
@@ -89,7 +104,6 @@ function program(): Command {
     .option("--db-range <min:max>", "colour scale in dBFS/Hz, e.g. -150:-90 (default: from the noise floor to the peak)")
     .addOption(new Option("--reduce <how>", "combine the frames of a row by their mean or their maximum").choices(["mean", "max"]).default("mean"))
     .option("--json", "print a JSON summary of what was written on stdout")
-    .addHelpText("after", "\nResults are indicative; see iqaudit --help for cautions.")
     .action(
       async (
         path: string,
@@ -124,8 +138,8 @@ function program(): Command {
           "FSK shift, OOK duty cycle, emission designator; writes a report folder with --out",
       ),
   )
-    .option("--channel <offset:width>", "measure the emission in this channel, e.g. 12.5k:25k (offset from the capture centre : width), default the strongest")
-    .option("--nominal <Hz>", "assigned (nominal) carrier frequency, for the error in ppm; needs --center")
+    .option("--channel <centre:width>", "measure the emission in this channel: its centre as an offset from the capture centre (12.5k:25k) or, with the capture's centre known, as an absolute frequency (164.85M:25k); default the emission nearest --nominal, else the strongest")
+    .option("--nominal <Hz>", "assigned (nominal) carrier frequency, for the error in ppm; without --channel the emission nearest it is measured; needs --center")
     .option("--reference-ppm <u>", "uncertainty of the receiver's frequency reference, ppm (k = 2), added to the carrier's uncertainty; without it the report says it is not included")
     .option("--xdb <dB>", "level below the spectral peak for the x-dB bandwidth", "26")
     .option("--audio-bw <Hz>", "audio low-pass before FM peak deviation and AM depth (clicks of noise are removed)", "3k")
@@ -153,7 +167,7 @@ function program(): Command {
         const progress = createProgress(`measure ${path}`, !quiet());
         const result = await measureCommand(path, {
           capture: captureArgs(flags),
-          channel: flags.channel === undefined ? undefined : parseChannel(flags.channel),
+          channelAsGiven: flags.channel === undefined ? undefined : parseChannel(flags.channel),
           nominalHz: flags.nominal === undefined ? undefined : parseQuantity("--nominal", flags.nominal, { unit: "Hz", min: 0 }),
           referencePpm: flags.referencePpm === undefined ? undefined : parseQuantity("--reference-ppm", flags.referencePpm, { unit: "none", min: 0 }),
           xDb: parseQuantity("--xdb", flags.xdb, { unit: "none", min: 0 }),
@@ -193,8 +207,7 @@ function program(): Command {
   archiveAddOptions(root.commands[root.commands.length - 1] as Command)
     .addHelpText(
       "after",
-      "\nThe detection threshold follows from --pfa and the chi-square law of averaged periodograms (docs/methods.md).\n" +
-        "Results are indicative: the licence and local regulation decide what applies; see iqaudit --help for cautions.",
+      "\nThe detection threshold follows from --pfa and the chi-square law of averaged periodograms (docs/methods.md).",
     )
     .action(
       async (
@@ -426,11 +439,11 @@ function addArchiveCommands(root: Command): void {
     });
 }
 
-function parseChannel(text: string): { offsetHz: number; widthHz: number } {
+function parseChannel(text: string): ChannelRequest {
   const parts = text.split(":");
-  if (parts.length !== 2) throw new UsageError("--channel", `'${text}' is not OFFSET:WIDTH in Hz, e.g. 12.5k:25k`);
+  if (parts.length !== 2) throw new UsageError("--channel", `'${text}' is not CENTRE:WIDTH in Hz, e.g. 12.5k:25k (offset) or 164.85M:25k (absolute)`);
   return {
-    offsetHz: parseQuantity("--channel", parts[0] as string, { unit: "Hz" }),
+    centreHz: parseQuantity("--channel", parts[0] as string, { unit: "Hz" }),
     widthHz: parseQuantity("--channel", parts[1] as string, { unit: "Hz", min: 0 }),
   };
 }
@@ -456,8 +469,7 @@ function parseDbRange(text: string): { minDb: number; maxDb: number } {
 /** Commander's own messages ("error: unknown option '--x'") as one contract line. */
 function usageLine(e: CommanderError): string {
   const text = e.message.replace(/^error:\s*/i, "").split("\n")[0] as string;
-  const quoted = /'([^']+)'/.exec(text);
-  const subject = quoted ? ((quoted[1] as string).split(" ")[0] as string) : "usage";
+  const subject = usageSubject(text);
   return `iqaudit: ${subject}: ${text} (see iqaudit --help)`;
 }
 
@@ -481,7 +493,10 @@ export async function main(argv: readonly string[]): Promise<number> {
   const cli = program();
   const quietly = (c: Command): void => {
     c.exitOverride();
-    c.configureOutput({ outputError: () => undefined });
+    // A bare `iqaudit` (or `iqaudit archive`) asks what the tool does: commander prints the help
+    // through writeErr as an error ("commander.help"); it goes to stdout and the exit is 0. Errors
+    // themselves go through outputError, silenced here and printed by main as one line.
+    c.configureOutput({ outputError: () => undefined, writeErr: (text) => process.stdout.write(text) });
     for (const sub of c.commands) quietly(sub);
   };
   quietly(cli);
@@ -492,7 +507,7 @@ export async function main(argv: readonly string[]): Promise<number> {
   } catch (e) {
     clearProgressLine();
     if (e instanceof CommanderError) {
-      if (e.exitCode === 0) return 0; // --help, --version
+      if (e.exitCode === 0 || e.code === "commander.help") return 0; // --help, --version, a command left out
       process.stderr.write(`${oneLine(usageLine(e))}\n`);
       return 2;
     }

@@ -18,3 +18,12 @@ export function absoluteFrequencyHz(meta: CaptureMeta, reportedOffsetHz: number)
   if (meta.centerHz === null) return null;
   return meta.centerHz + correctedOffsetHz(meta, reportedOffsetHz);
 }
+
+/**
+ * The offset at which the receiver shows an emission at absolute RF `frequencyHz` (the inverse of
+ * absoluteFrequencyHz: frequencyHz − fc − p·1e-6·fc); null when the centre is unknown.
+ */
+export function reportedOffsetOfHz(meta: CaptureMeta, frequencyHz: number): number | null {
+  if (meta.centerHz === null) return null;
+  return frequencyHz - meta.centerHz - meta.ppm * 1e-6 * meta.centerHz;
+}

@@ -38,7 +38,8 @@ import {
 import type { Pass1Result } from "./pass1.js";
 import { runPass2, type Pass2Result, type Pass2WholeSpan } from "./pass2.js";
 import type { WholeSpanFigures } from "./wholeSpan.js";
-import { correctedOffsetHz } from "./clockCorrection.js";
+import { correctedOffsetHz, reportedOffsetOfHz } from "./clockCorrection.js";
+import { locateNearNominal } from "./nearNominal.js";
 import type { AmFiguresOut, DigitalFiguresOut, EmissionFigures, FmFiguresOut, FskFiguresOut, OokFiguresOut } from "./emissionFigures.js";
 import { digitalEmission } from "./digitalEmission.js";
 import { keyedBursts, keyedDecision, type KeyedDecision } from "./keyedEmission.js";
@@ -48,7 +49,7 @@ export const MEASURE_MODES = ["cw", "am", "fm", "fsk", "ook", "psk", "qam"] as c
 export type MeasureMode = (typeof MEASURE_MODES)[number];
 
 export interface MeasureEmissionOptions {
-  /** The channel to measure (offset from the capture centre and width, Hz); default the strongest emission. */
+  /** The channel to measure (offset from the capture centre and width, Hz); default the emission nearest `nominalHz`, else the strongest. */
   readonly channel?: { readonly offsetHz: number; readonly widthHz: number } | undefined;
   /** Assigned frequency, Hz, for the error in ppm (needs the capture centre). */
   readonly nominalHz?: number | undefined;
@@ -105,7 +106,11 @@ export async function measureEmission(
   const dcOffsetDbfs = pass1.health.dcOffsetDbfs;
   const dc = detectDcSpike(pass1.psd, floor, { dcOffsetDbfs });
   const dcSpike = { present: dc.present, levelDbfs: dc.present ? dc.levelDbfs : null, widthHz: dc.present ? dc.widthHz : null };
-  const region = locateEmission(pass1.psd, floor, { channel: options.channel, dcOffsetDbfs });
+  // --nominal without --channel: the emission nearest the nominal frequency (nearNominal.ts).
+  const nominalOffsetHz = options.channel === undefined && options.nominalHz !== undefined ? reportedOffsetOfHz(meta, options.nominalHz) : null;
+  const near = nominalOffsetHz === null ? null : locateNearNominal(pass1.psd, floor, nominalOffsetHz, options.nominalHz as number, dcOffsetDbfs);
+  if (near?.warning != null) warnings.push(near.warning);
+  const region = near === null ? locateEmission(pass1.psd, floor, { channel: options.channel, dcOffsetDbfs }) : near.region;
   if (region === null) {
     warnings.push("no emission stands above the noise floor: nothing to measure");
     return noEmission(pass1, dcSpike, xDb, options.nominalHz ?? null, warnings);

@@ -76,7 +76,7 @@ async function openSigmf(path: string, options: CaptureOptions): Promise<Capture
   const dataPath = sigmfDataPath(recording, paths.metaPath, paths.dataPath);
   const { handle, fileBytes } = await openRegularFile(dataPath, ` (the dataset of ${paths.metaPath})`);
   try {
-    const meta = sigmfCaptureMeta(recording, { path, metaPath: paths.metaPath, dataPath }, fileBytes, options);
+    const meta = sigmfCaptureMeta(recording, { path, metaPath: paths.metaPath, dataPath, metaSha256: recording.metaSha256 }, fileBytes, options);
     return fileSource(meta, handle);
   } catch (e) {
     await handle.close();

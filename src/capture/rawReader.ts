@@ -57,6 +57,7 @@ export function readRawMeta(
     trailingBytes: frames.trailingBytes,
     swapIq: options.swapIq === true && complex,
     origin: { format: formatOrigin, sampleRateHz: rate.origin, centerHz: centre.origin },
+    sigmf: null,
     warnings,
   };
 }

@@ -11,6 +11,7 @@
 import { CaptureFormatError } from "../errors.js";
 import { centerProblem, sampleRateProblem } from "./acceptedRanges.js";
 import { parseSigmfDatatype, type SigmfDatatype } from "./sigmfDatatype.js";
+import type { SigmfAnnotation } from "./source.js";
 
 /** What iqaudit takes from a .sigmf-meta file. */
 export interface SigmfRecording {
@@ -31,6 +32,10 @@ export interface SigmfRecording {
   /** captures[0] core:datetime when it is RFC 3339 with the Z offset, else null. */
   readonly datetime: string | null;
   readonly captureCount: number;
+  /** global core:description, or null. */
+  readonly description: string | null;
+  /** The annotations, in file order (their sample_start less core:offset). */
+  readonly annotations: readonly SigmfAnnotation[];
   readonly warnings: readonly string[];
 }
 
@@ -89,6 +94,7 @@ export function parseSigmfMeta(text: string, metaPath: string): SigmfRecording {
     fail(`has global core:dataset "${dataset}", which must be a bare file name in the same folder`);
   }
   const trailingBytes = g.integer("core:trailing_bytes") ?? 0;
+  const description = g.string("core:description") ?? null;
   if (g.boolean("core:metadata_only") === true && dataset === null) {
     fail("is metadata only (core:metadata_only is true): there is no dataset to read");
   }
@@ -144,16 +150,35 @@ export function parseSigmfMeta(text: string, metaPath: string): SigmfRecording {
       }
     }
   }
-  const annotations = root["annotations"];
-  if (annotations === undefined) warnings.push(`${metaPath} has no annotations array, which SigMF requires.`);
-  else if (!Array.isArray(annotations)) fail(`has "annotations" that is ${describe(annotations)}, not an array`);
-  else {
-    annotations.forEach((a, k) => {
-      if (!isObject(a)) fail(`has annotations[${k}] that is ${describe(a)}, not an object`);
-      else new Fields(a, `annotations[${k}]`, fail).integer("core:sample_start");
-    });
+  const annotations = readAnnotations(root["annotations"], offset, fail, warnings, metaPath);
+  return { datatype, sampleRateHz, version, dataset, trailingBytes, frequencyHz, headerBytes, datetime, captureCount, description, annotations, warnings };
+}
+
+/** The annotations array: each an object with core:sample_start; the descriptive fields typed. */
+function readAnnotations(annotations: Json | undefined, offset: number, fail: (p: string) => never, warnings: string[], metaPath: string): SigmfAnnotation[] {
+  if (annotations === undefined) {
+    warnings.push(`${metaPath} has no annotations array, which SigMF requires.`);
+    return [];
   }
-  return { datatype, sampleRateHz, version, dataset, trailingBytes, frequencyHz, headerBytes, datetime, captureCount, warnings };
+  if (!Array.isArray(annotations)) return fail(`has "annotations" that is ${describe(annotations)}, not an array`);
+  return annotations.flatMap((a, k) => {
+    if (!isObject(a)) return fail(`has annotations[${k}] that is ${describe(a)}, not an object`);
+    const f = new Fields(a, `annotations[${k}]`, fail);
+    const start = f.integer("core:sample_start");
+    if (start === undefined) {
+      // Required by SigMF but not needed to read the samples: a warning, and the annotation is not listed.
+      warnings.push(`annotations[${k}] of ${metaPath} has no core:sample_start, which SigMF requires; it is not listed.`);
+      return [];
+    }
+    return [{
+      sampleStart: start >= offset ? start - offset : start,
+      sampleCount: f.integer("core:sample_count") ?? null,
+      lowerFrequencyHz: f.number("core:freq_lower_edge") ?? null,
+      upperFrequencyHz: f.number("core:freq_upper_edge") ?? null,
+      label: f.string("core:label") ?? null,
+      comment: f.string("core:comment") ?? null,
+    }];
+  });
 }
 
 /** Typed access to the keys of one JSON object; a key of the wrong type fails with its path. */

@@ -3,6 +3,7 @@
  * core:dataset for a non-conforming dataset). Either path may be given. The metadata is checked
  * by sigmf.ts; this turns it and the data file's size into CaptureMeta.
  */
+import { createHash } from "node:crypto";
 import { readFile } from "node:fs/promises";
 import { dirname, join } from "node:path";
 import { CaptureFormatError, UsageError } from "../errors.js";
@@ -22,17 +23,21 @@ export function sigmfPaths(path: string): { metaPath: string; dataPath: string }
   return { metaPath: `${stem}.sigmf-meta`, dataPath: `${stem}.sigmf-data` };
 }
 
-/** Reads and checks the .sigmf-meta file; a missing, unreadable or non-regular file is a CaptureFormatError. */
-export async function readSigmfRecording(metaPath: string): Promise<SigmfRecording> {
+/**
+ * Reads and checks the .sigmf-meta file, with the SHA-256 of its bytes as stored; a missing,
+ * unreadable or non-regular file is a CaptureFormatError.
+ */
+export async function readSigmfRecording(metaPath: string): Promise<SigmfRecording & { readonly metaSha256: string }> {
   const bytes = await statRegularFile(metaPath, "", "no such file: a SigMF recording needs its .sigmf-meta beside the .sigmf-data");
   if (bytes > MAX_META_BYTES) throw new CaptureFormatError(metaPath, `is ${bytes} bytes, too large for SigMF metadata (limit ${MAX_META_BYTES})`);
-  let text: string;
+  let data: Buffer;
   try {
-    text = await readFile(metaPath, "utf8");
+    data = await readFile(metaPath);
   } catch (e) {
     throw new CaptureFormatError(metaPath, `cannot be read (${(e as NodeJS.ErrnoException).code ?? "unknown error"})`);
   }
-  return parseSigmfMeta(text, metaPath);
+  const metaSha256 = createHash("sha256").update(data).digest("hex");
+  return { ...parseSigmfMeta(data.toString("utf8"), metaPath), metaSha256 };
 }
 
 /** The data file of a recording: core:dataset in the meta file's folder, else NAME.sigmf-data. */
@@ -49,11 +54,11 @@ export function sigmfDataPath(recording: SigmfRecording, metaPath: string, defau
  */
 export function sigmfCaptureMeta(
   recording: SigmfRecording,
-  paths: { path: string; metaPath: string; dataPath: string },
+  paths: { path: string; metaPath: string; dataPath: string; metaSha256: string },
   fileBytes: number,
   options: CaptureOptions,
 ): CaptureMeta {
-  const { path, metaPath, dataPath } = paths;
+  const { path, metaPath, dataPath, metaSha256 } = paths;
   const warnings: string[] = [...recording.warnings];
   const dt = recording.datatype;
   let format: SampleFormat;
@@ -107,5 +112,6 @@ export function sigmfCaptureMeta(
     swapIq: options.swapIq === true && complex,
     origin: { format: formatOrigin, sampleRateHz: rate.origin, centerHz: centre.origin },
     warnings,
+    sigmf: { metaPath, metaSha256, description: recording.description, annotations: recording.annotations },
   };
 }

@@ -66,6 +66,31 @@ export interface CaptureMeta {
   };
   /** Things the reader noticed: a flag overriding metadata, trailing bytes, and so on. */
   readonly warnings: readonly string[];
+  /** What a SigMF recording's metadata file is and says beyond how to read it; null for raw and WAV. */
+  readonly sigmf: SigmfInfo | null;
+}
+
+/** The .sigmf-meta file of a recording: its hash (it sets the rate and centre) and its descriptive fields. */
+export interface SigmfInfo {
+  readonly metaPath: string;
+  /** SHA-256 of the .sigmf-meta file as stored, lower-case hex. */
+  readonly metaSha256: string;
+  /** global core:description, or null. */
+  readonly description: string | null;
+  readonly annotations: readonly SigmfAnnotation[];
+}
+
+/** One SigMF annotation (core namespace). */
+export interface SigmfAnnotation {
+  /** core:sample_start less global core:offset: the sample index in the dataset. */
+  readonly sampleStart: number;
+  /** core:sample_count, or null (the annotation then runs to the end). */
+  readonly sampleCount: number | null;
+  /** core:freq_lower_edge and core:freq_upper_edge, absolute Hz, or null. */
+  readonly lowerFrequencyHz: number | null;
+  readonly upperFrequencyHz: number | null;
+  readonly label: string | null;
+  readonly comment: string | null;
 }
 
 /** A span of samples to analyse: [startSample, startSample + sampleCount). */

@@ -79,6 +79,7 @@ export async function readWavMeta(
     trailingBytes: frames.trailingBytes,
     swapIq,
     origin: { format: "wav-header", sampleRateHz: rate.origin, centerHz: centre.origin },
+    sigmf: null,
     warnings,
   };
 }

@@ -25,6 +25,7 @@ import { publishFolder, writeFileAtomic, type FolderSpec, type FolderWriter } fr
 import { surveyCommand } from "./survey.js";
 import type { InspectReport } from "../report/inspectReport.js";
 import { formatHz } from "../report/format.js";
+import { displayClass } from "../report/className.js";
 
 export interface DemoOptions {
   readonly outDir: string;
@@ -183,7 +184,7 @@ async function measureTransmitters(file: ScenarioFile, capture: CaptureArgs, fol
 
 function measuredLine(m: MeasureReport): string {
   const parts = [
-    `${m.modulation.class}${m.modulation.order === null ? "" : ` ${m.modulation.order}`}`,
+    displayClass(m.modulation.class, m.modulation.order),
     `designator ${m.emission.designator ?? "n/a"}`,
     m.carrier.errorPpm === null ? "" : `error ${m.carrier.errorPpm.toFixed(3)} ppm`,
     m.bandwidth.occupiedHz === null ? "" : `OBW ${formatHz(m.bandwidth.occupiedHz)}`,
@@ -258,7 +259,7 @@ async function surveyDemo(scenario: readonly ScenarioFile[], outDir: string, wri
   const set = report.emissions.filter((e) => e.artefact !== null);
   return [
     `${basename(site.path)}: blind survey, ${found.length} emissions found (the scenario has ${SCENARIO_CAPTURES.find((c) => c.id === "survey")?.emissions.length ?? "?"}), ${set.length} receiver artefacts set aside`,
-    ...found.map((e) => `  ${e.id}. ${e.frequencyHz === null ? formatHz(e.offsetHz) : formatHz(e.frequencyHz)}: ${e.class ?? "unknown"}${e.order === null ? "" : ` ${e.order}`}, ${e.designator ?? "no designator"}${e.report?.digital.symbolRateBd == null ? "" : `, ${e.report.digital.symbolRateBd.toFixed(1)} Bd`}, duty ${e.dutyCyclePercent?.toFixed(0) ?? "?"} %`),
+    ...found.map((e) => `  ${e.id}. ${e.frequencyHz === null ? formatHz(e.offsetHz) : formatHz(e.frequencyHz)}: ${displayClass(e.class, e.order)}, ${e.designator ?? "no designator"}${e.report?.digital.symbolRateBd == null ? "" : `, ${e.report.digital.symbolRateBd.toFixed(1)} Bd`}, duty ${e.dutyCyclePercent?.toFixed(0) ?? "?"} %`),
     ...set.map((e) => `  ${e.id}. ${e.frequencyHz === null ? formatHz(e.offsetHz) : formatHz(e.frequencyHz)}: ${e.artefact === "dc" ? "the receiver's DC spike" : `IQ image of ${e.imageOf ?? "?"}`}`),
     `  -> ${join(folder, "survey.md")}, ${join(folder, "survey.png")}`,
     "",

@@ -7,6 +7,7 @@ import { basename, join } from "node:path";
 import type { Pass1Options } from "../analysis/index.js";
 import { checkMeasureOptions, measureEmission, type MeasureEmissionOptions } from "../analysis/measureEmission.js";
 import type { EmissionFigures } from "../analysis/emissionFigures.js";
+import { resolveChannel, type ChannelRequest } from "../analysis/channelRequest.js";
 import { withAnalysedCapture, type AnalysedCapture, type CaptureArgs } from "./analyseCapture.js";
 import { buildMeasureReport, type MeasureReport } from "../report/measureReport.js";
 import { measureMarkdown } from "../report/measureMarkdown.js";
@@ -22,6 +23,11 @@ export interface MeasureOptions extends MeasureEmissionOptions {
   /** Instead of outDir: a folder inside one being published (the demo's), written into as it is. */
   readonly outFolder?: FolderWriter | undefined;
   readonly pass1?: Pass1Options | undefined;
+  /**
+   * `--channel` as typed (an offset, or an absolute frequency beyond the sample rate): resolved
+   * against the capture's metadata once it is open (resolveChannel) and measured as `channel`.
+   */
+  readonly channelAsGiven?: ChannelRequest | undefined;
 }
 
 export interface MeasureResult {
@@ -39,10 +45,15 @@ export async function measureCommand(path: string, options: MeasureOptions): Pro
 
 /** Pass 1, pass 2 and the report, handed to `then` while the capture is open. */
 async function measured<T>(path: string, options: MeasureOptions, then: (a: AnalysedCapture, f: EmissionFigures, r: MeasureReport) => Promise<T>): Promise<T> {
+  let resolved: MeasureOptions = options;
   return withAnalysedCapture(path, options.capture, options.pass1 ?? {}, async (a, source) => {
-    const figures = await measureEmission(source, a.span, a.pass1, options);
+    const figures = await measureEmission(source, a.span, a.pass1, resolved);
     return then(a, figures, buildMeasureReport(a.meta, a.span, a.pass1, figures, a.warnings));
-  }, (meta, span) => checkMeasureOptions(options, meta, span));
+  }, (meta, span) => {
+    const asGiven = options.channelAsGiven;
+    if (asGiven !== undefined) resolved = { ...options, channel: resolveChannel(asGiven, meta) };
+    checkMeasureOptions(resolved, meta, span);
+  });
 }
 
 /** Figures first, then report.md, then report.json listing both with their SHA-256. */

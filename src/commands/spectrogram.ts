@@ -29,7 +29,9 @@ export interface SpectrogramSummary {
   readonly rows: number;
   readonly fftLength: number;
   readonly dbRange: { readonly minDb: number; readonly maxDb: number };
-  readonly sha256: string;
+  /** SHA-256 of the capture's data file (not of the PNG), and of its .sigmf-meta for SigMF (else null). */
+  readonly captureSha256: string;
+  readonly captureMetadataSha256: string | null;
   /** The plot area in image pixels, and the offsets (Hz) of its left and right edges. */
   readonly plot: { readonly x: number; readonly y: number; readonly width: number; readonly height: number };
   readonly frequencySpanHz: readonly [number, number];
@@ -62,7 +64,8 @@ export async function spectrogramCommand(path: string, options: SpectrogramOptio
     rows: a.pass1.spectrogram.rowCount,
     fftLength: a.pass1.spectrogram.fftLength,
     dbRange: figure.dbRange,
-    sha256: a.pass1.sha256,
+    captureSha256: a.pass1.sha256,
+    captureMetadataSha256: a.meta.sigmf?.metaSha256 ?? null,
     plot: figure.plot,
     frequencySpanHz: figure.frequencySpanHz,
     warnings: a.warnings,

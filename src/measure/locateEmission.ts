@@ -22,6 +22,10 @@
  * With `channel` given, the region is that channel, whatever the PSD holds; when it contains a
  * DC spike, the same search inside the channel decides whether the spike is set aside (an
  * emission in the channel does not run through 0 Hz: `dcSpikeSkipped`) or taken as the carrier.
+ * With `near` given (and no channel), only the regions that reach into the window
+ * offsetHz ± halfWidthHz are candidates, the strongest of them is the emission, and null means
+ * none reaches in (`--nominal` without `--channel`: measureEmission widens the window in steps).
+ *
  * Edges are bin edges: the lowest bin's centre − Δf/2 and the highest's + Δf/2.
  */
 import { binFrequencyHz, dbToPower, powerToDb, type WelchPsd } from "../dsp/index.js";
@@ -47,6 +51,8 @@ export interface EmissionRegion {
 /** Options of locateEmission; defaults in LOCATE_EMISSION_DEFAULTS. */
 export interface LocateEmissionOptions {
   readonly channel?: { readonly offsetHz: number; readonly widthHz: number } | undefined;
+  /** Only regions reaching into offsetHz ± halfWidthHz (offsets from the capture centre, Hz). */
+  readonly near?: { readonly offsetHz: number; readonly halfWidthHz: number } | undefined;
   readonly thresholdDb?: number;
   readonly growDb?: number;
   /** Largest gap between regions that are joined, Hz. Default max(3 bins, 0.02·fs). */
@@ -102,7 +108,9 @@ export function locateEmission(psd: WelchPsd, noiseFloorPerHz: number, options: 
       peakBinIndex: peak, powerDbfs: powerToDb(sum), dcSpikeSkipped: skipped, dcSpikeInside: inside,
     };
   }
-  const found = search(q, spike, params);
+  const near = options.near === undefined ? undefined
+    : { lo: (options.near.offsetHz - options.near.halfWidthHz) / df + dc - 0.5, hi: (options.near.offsetHz + options.near.halfWidthHz) / df + dc + 0.5 };
+  const found = search(q, spike, params, near);
   if (found === null) return null;
   const { lo, hi, carrierTaken } = found;
   const { peak, sum } = peakAndSum(carrierTaken ? psd.densityPerHz : q, lo, hi, df);
@@ -117,7 +125,7 @@ export function locateEmission(psd: WelchPsd, noiseFloorPerHz: number, options: 
 interface SearchParams { floor: number; seed: number; grow: number; gapBins: number }
 
 /** Runs, merged regions, trimmed, the strongest, and its mirror partner (module comment). */
-function search(q: Float64Array, spike: DcSpike, s: SearchParams): Search | null {
+function search(q: Float64Array, spike: DcSpike, s: SearchParams, near?: { lo: number; hi: number }): Search | null {
   const dc = q.length / 2;
   const runs = seedRuns(q, s);
   if (runs.length === 0) return null;
@@ -131,8 +139,10 @@ function search(q: Float64Array, spike: DcSpike, s: SearchParams): Search | null
     else regions.push([r]);
   }
   const merged = regions.map(trimRegion);
-  let best = merged[0] as Run;
-  for (const r of merged) if (r.excess > best.excess) best = r;
+  const candidates = near === undefined ? merged : merged.filter((r) => r.hi >= near.lo && r.lo <= near.hi);
+  if (candidates.length === 0) return null;
+  let best = candidates[0] as Run;
+  for (const r of candidates) if (r.excess > best.excess) best = r;
   let lo = best.lo;
   let hi = best.hi;
   if (spike.present && (best.hi < dc || best.lo > dc)) {

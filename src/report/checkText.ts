@@ -5,10 +5,12 @@
 import type { CheckEntry } from "../licence/index.js";
 import type { CheckReport } from "./checkReport.js";
 import { formatUncertainty } from "./format.js";
+import { displayClass } from "./className.js";
 
 export function checkText(r: CheckReport, files: readonly string[]): string {
   const lines = [
     `${r.report.capture.path}: ${r.verdict === "pass" ? "PASS" : "FAIL"} (decision with U: ${r.decision})`,
+    `  emission measured: ${displayClass(r.report.modulation.class, r.report.modulation.order)}${r.report.emission.designator === null ? "" : `, ${r.report.emission.designator}`}`,
     "",
     ...r.checks.map(checkLine),
     ...(r.skipped.length === 0 ? [] : ["", "not checked:", ...r.skipped.map((s) => `  ${s}`)]),

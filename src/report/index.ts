@@ -7,3 +7,4 @@ export { systemReason, isSystemError } from "./outputFailure.js";
 export { REPORT_FOLDER } from "./reportFolder.js";
 export { surveyMarkdown } from "./surveyMarkdown.js";
 export { buildSurveyReport, type SurveyDetected, type SurveyEmission, type SurveyReport } from "./surveyReport.js";
+export { displayClass } from "./className.js";

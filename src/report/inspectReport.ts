@@ -11,6 +11,8 @@ import { detectDcSpike } from "../measure/index.js";
 export interface CaptureSection {
   readonly path: string;
   readonly sha256: string;
+  /** SHA-256 of the .sigmf-meta file (it sets the rate and centre) for SigMF, else null. */
+  readonly metadataSha256: string | null;
   readonly container: CaptureMeta["container"];
   readonly format: CaptureMeta["format"];
   readonly complex: boolean;
@@ -57,15 +59,50 @@ export interface InspectReport {
     readonly window: string;
     readonly segments: number;
   };
+  /** A SigMF recording's description and annotations (null for raw and WAV). */
+  readonly sigmf: SigmfSection | null;
   readonly uncertainty: Readonly<Record<string, number>>;
   readonly methods: Readonly<Record<string, string>>;
   readonly warnings: readonly string[];
+}
+
+export interface SigmfSection {
+  readonly description: string | null;
+  readonly annotations: readonly {
+    readonly label: string | null;
+    readonly comment: string | null;
+    /** Absolute RF edges, Hz (core:freq_lower_edge, core:freq_upper_edge), or null. */
+    readonly lowerFrequencyHz: number | null;
+    readonly upperFrequencyHz: number | null;
+    /** From the first sample of the file, s (core:sample_start / rate). */
+    readonly startS: number;
+    /** core:sample_count / rate, s, or null when the annotation runs to the end. */
+    readonly durationS: number | null;
+  }[];
+}
+
+/** The SigMF section of the inspect report: times at the capture's rate. */
+export function sigmfSection(meta: CaptureMeta): SigmfSection | null {
+  if (meta.sigmf === null) return null;
+  const fs = meta.sampleRateHz;
+  return {
+    description: meta.sigmf.description,
+    annotations: meta.sigmf.annotations.map((a) => ({
+      label: a.label,
+      comment: a.comment,
+      lowerFrequencyHz: a.lowerFrequencyHz,
+      upperFrequencyHz: a.upperFrequencyHz,
+      startS: a.sampleStart / fs,
+      durationS: a.sampleCount === null ? null : a.sampleCount / fs,
+    })),
+  };
 }
 
 export function captureSection(meta: CaptureMeta, span: SampleSpan, sha256: string): CaptureSection {
   return {
     path: meta.path,
     sha256,
+    metadataSha256: meta.sigmf?.metaSha256 ?? null,
     container: meta.container,
     format: meta.format,
     complex: meta.complex,
@@ -134,6 +171,7 @@ export function buildInspectReport(
       window: psd.window,
       segments: psd.segmentCount,
     },
+    sigmf: sigmfSection(meta),
     uncertainty: {
       "spectrum.peakOffsetHz": peakU,
       ...(meta.centerHz === null ? {} : { "spectrum.peakFrequencyHz": peakU }),
@@ -144,6 +182,7 @@ export function buildInspectReport(
       health: "second-order moments of I and Q after DC removal (gain, phase); image rejection from gain and phase",
       peak: "highest PSD bin, parabolic interpolation of dB values; power = density × ENBW",
       sha256: "SHA-256 of the whole data file as stored, computed during the same read",
+      ...(meta.sigmf === null ? {} : { metadataSha256: "SHA-256 of the .sigmf-meta file as stored, computed as it was read" }),
     },
     warnings: noSignal(pass1) ? [...warnings, "the analysed span holds no signal (every sample is zero, or was not finite and read as 0): its health figures and strongest line mean nothing"] : warnings,
   };

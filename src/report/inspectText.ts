@@ -1,5 +1,5 @@
 /** The `inspect` report as text for a person (the JSON form is the contract; this is its reading). */
-import type { InspectReport } from "./inspectReport.js";
+import type { InspectReport, SigmfSection } from "./inspectReport.js";
 import { alignedRows, formatBytes, formatHz, formatRate, formatSeconds } from "./format.js";
 
 const ORIGIN_WORDS: Record<string, string> = {
@@ -19,6 +19,7 @@ export function inspectText(r: InspectReport): string {
   const capture = alignedRows([
     ["file", c.path],
     ["SHA-256", c.sha256],
+    ...(c.metadataSha256 !== null ? ([["metadata SHA-256", `${c.metadataSha256}  (the .sigmf-meta)`]] as [string, string][]) : []),
     ["container", `${c.container}, ${c.format}${c.complex ? "" : " (real signal)"}  (${ORIGIN_WORDS[c.origin.format]})`],
     ["sample rate", `${formatRate(c.sampleRateHz)}  (${ORIGIN_WORDS[c.origin.sampleRateHz]})`],
     ["centre", c.centerHz === null ? "unknown (give --center for absolute frequencies)" : `${formatHz(c.centerHz)}  (${ORIGIN_WORDS[c.origin.centerHz]})`],
@@ -44,5 +45,21 @@ export function inspectText(r: InspectReport): string {
     ["PSD", `${s.fftLength}-point ${s.window}, ${s.segments} segments, bin ${formatHz(s.binWidthHz)}`],
   ]);
   const warnings = r.warnings.length === 0 ? "" : `\nWarnings\n${r.warnings.map((w) => `  - ${w}`).join("\n")}\n`;
-  return `Capture\n${capture}\n\nHealth\n${health}\n\nSpectrum\n${spectrum}\n${warnings}`;
+  return `Capture\n${capture}\n${sigmfText(r.sigmf)}\nHealth\n${health}\n\nSpectrum\n${spectrum}\n${warnings}`;
+}
+
+/** The recording's description and one line an annotation: label, edges, time span, comment. */
+function sigmfText(s: SigmfSection | null): string {
+  if (s === null) return "";
+  const lines = s.annotations.map((a, k) => {
+    const edges = a.lowerFrequencyHz === null || a.upperFrequencyHz === null
+      ? "no frequency edges"
+      : `${formatHz(a.lowerFrequencyHz)} – ${formatHz(a.upperFrequencyHz)}`;
+    const span = a.durationS === null ? `from ${formatSeconds(a.startS)} to the end` : `${formatSeconds(a.startS)} – ${formatSeconds(a.startS + a.durationS)}`;
+    const comment = a.comment === null ? "" : `\n       ${a.comment}`;
+    return `  ${k + 1}. ${a.label ?? "(no label)"}: ${edges}, ${span}${comment}`;
+  });
+  const description = s.description === null ? [] : [`  description: ${s.description}`];
+  const annotations = lines.length === 0 ? ["  no annotations"] : [`  annotations (${lines.length}):`, ...lines.map((l) => `  ${l}`)];
+  return `\nSigMF recording\n${[...description, ...annotations].join("\n")}\n`;
 }

@@ -8,6 +8,7 @@ import { basename } from "node:path";
 import type { MeasureReport } from "./measureReport.js";
 import { formatHz, formatRate, formatSeconds, formatUncertainty, uncertaintyDecimals } from "./format.js";
 import { REFERENCE_NOT_INCLUDED } from "../measure/index.js";
+import { displayClass } from "./className.js";
 
 interface Row {
   readonly label: string;
@@ -98,6 +99,7 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
     `| --- | --- |`,
     `| File | \`${c.path}\` |`,
     `| SHA-256 | \`${c.sha256}\` |`,
+    ...(c.metadataSha256 === null ? [] : [`| SHA-256 of the .sigmf-meta | \`${c.metadataSha256}\` |`]),
     `| Format | ${c.container}, ${c.format} |`,
     `| Sample rate | ${formatRate(c.sampleRateHz)} |`,
     `| Centre | ${c.centerHz === null ? "unknown" : formatHz(c.centerHz)}${c.ppm !== 0 ? `, receiver clock corrected by ${c.ppm} ppm` : ""} |`,
@@ -108,7 +110,7 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
     "",
     `## Result`,
     "",
-    `Class **${r.modulation.class}${r.modulation.order === null ? "" : ` (order ${r.modulation.order}${r.digital.constellation === null ? "" : `, ${r.digital.constellation}`})`}**${r.modulation.forced ? " (given with --mode)" : ` (confidence ${(r.modulation.confidence * 100).toFixed(0)} %)`}` +
+    `Class **${displayClass(r.modulation.class, r.modulation.order)}**${r.modulation.forced ? " (given with --mode)" : ` (confidence ${(r.modulation.confidence * 100).toFixed(0)} %)`}` +
       (r.emission.designator === null
         ? ", no emission designator."
         : `, emission designator **${r.emission.designator}** (bandwidth from the ${r.emission.designatorBasis === "necessary" ? "necessary bandwidth, 47 CFR 2.202(g)" : "99 % occupied bandwidth, 47 CFR 90.209(a)"}).`),

@@ -1,6 +1,7 @@
 /** The `measure` report as a short text for a person on stdout (report.md is the full one). */
 import type { MeasureReport } from "./measureReport.js";
 import { alignedRows, formatHz, formatHzUncertainty, formatUncertainty } from "./format.js";
+import { displayClass } from "./className.js";
 
 /** The value with its uncertainty; `unit` and `digits` set how the uncertainty is shown
  * (never as 0: formatUncertainty), Hz scaled as the value is. */
@@ -14,7 +15,7 @@ function withU(r: MeasureReport, path: string, value: number | null, show: (x: n
 export function measureText(r: MeasureReport, files: readonly string[]): string {
   const hz = (x: number): string => formatHz(x, 3);
   const rows: [string, string][] = [
-    ["class", `${r.modulation.class}${r.modulation.order === null ? "" : ` ${r.modulation.order}`}${r.modulation.forced ? " (given)" : `, confidence ${(r.modulation.confidence * 100).toFixed(0)} %`}`],
+    ["class", `${displayClass(r.modulation.class, r.modulation.order)}${r.modulation.forced ? " (given)" : `, confidence ${(r.modulation.confidence * 100).toFixed(0)} %`}`],
     ["designator", r.emission.designator ?? "n/a"],
     ["carrier offset", withU(r, "carrier.offsetHz", r.carrier.offsetHz, hz)],
     ...(r.carrier.frequencyHz === null ? [] : ([["carrier frequency", withU(r, "carrier.frequencyHz", r.carrier.frequencyHz, hz)]] as [string, string][])),

@@ -6,6 +6,7 @@
 import { basename } from "node:path";
 import type { SurveyEmission, SurveyReport } from "./surveyReport.js";
 import { formatHz, formatRate, formatSeconds } from "./format.js";
+import { displayClass } from "./className.js";
 
 const HEADER = ["No.", "Frequency", "Bandwidth (99 %)", "Power", "SNR", "On from – to", "Duty", "Class", "Designator", "Notes"];
 
@@ -46,7 +47,7 @@ function row(e: SurveyEmission): string[] {
     e.snrDb === null ? "n/a" : `${e.snrDb.toFixed(1)} dB`,
     `${formatSeconds(e.startS)} – ${formatSeconds(e.endS)}`,
     e.dutyCyclePercent === null ? "n/a" : `${e.dutyCyclePercent.toFixed(0)} %`,
-    e.class === null ? "n/a" : `${e.class}${e.order === null ? "" : ` ${e.order}`}`,
+    e.class === null ? "n/a" : displayClass(e.class, e.order),
     e.designator ?? "n/a",
     notes.join("; "),
   ];

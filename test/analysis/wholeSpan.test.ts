@@ -14,7 +14,7 @@ function generatedSource(sampleRateHz: number, fileSamples: number, generate: Ge
     path: "generated.cf32", dataPath: "generated.cf32", container: "raw", format: "cf32_le", complex: true,
     sampleRateHz, centerHz: null, ppm: 0, datetime: null, fileSamples, frameBytes: 8, dataOffsetBytes: 0,
     fileBytes: 8 * fileSamples, trailingBytes: 0, swapIq: false,
-    origin: { format: "flag", sampleRateHz: "flag", centerHz: "unknown" }, warnings: [],
+    origin: { format: "flag", sampleRateHz: "flag", centerHz: "unknown" }, warnings: [], sigmf: null,
   };
   return {
     meta,

@@ -43,6 +43,32 @@ describe("parseSigmfDatatype(text) follows the SigMF Dataset Format grammar", ()
   });
 });
 
+describe("parseSigmfMeta(text, path) reads the description and annotations (SigMF v1.2 core namespace)", () => {
+  it("takes core:description and each annotation's sample span (less global core:offset), edges, label and comment", () => {
+    const r = parseSigmfMeta(
+      meta({ "core:datatype": "cf32_le", "core:description": "a test", "core:offset": 1000 }, [{ "core:sample_start": 1000 }], {
+        annotations: [
+          { "core:sample_start": 1500, "core:sample_count": 250, "core:freq_lower_edge": 4.6e8, "core:freq_upper_edge": 4.6001e8, "core:label": "burst", "core:comment": "c" },
+          { "core:sample_start": 1000 },
+        ],
+      }),
+      "x.sigmf-meta",
+    );
+    expect(r.description).toBe("a test");
+    // SigMF: "All sample indices in SigMF are absolute", counted from core:offset: 1500 − 1000 = 500.
+    expect(r.annotations).toEqual([
+      { sampleStart: 500, sampleCount: 250, lowerFrequencyHz: 4.6e8, upperFrequencyHz: 4.6001e8, label: "burst", comment: "c" },
+      { sampleStart: 0, sampleCount: null, lowerFrequencyHz: null, upperFrequencyHz: null, label: null, comment: null },
+    ]);
+  });
+
+  it("leaves out an annotation without core:sample_start (SigMF requires it), with a warning", () => {
+    const r = parseSigmfMeta(meta({ "core:datatype": "cf32_le" }, undefined, { annotations: [{ "core:label": "x" }] }), "y.sigmf-meta");
+    expect(r.annotations).toEqual([]);
+    expect(r.warnings.join(" ")).toMatch(/annotations\[0\] .* no core:sample_start/);
+  });
+});
+
 describe("parseSigmfMeta(text, path) reads the core fields", () => {
   it("parseSigmfMeta takes datatype, sample_rate, and captures[0] frequency, header_bytes and datetime", () => {
     const r = parseSigmfMeta(

@@ -88,5 +88,12 @@ describe("demoCommand({ outDir })", () => {
       archive.close();
     }
     expect(PNG.sync.read(readFileSync(join(out, "launch-history.png"))).width).toBe(1200);
+    // SUMMARY.txt names the classes as a person reads them (displayClass; samples/README.md gives
+    // the truth: the quay link is QPSK, the talk-back AM, the beacon an unmodulated carrier, CW).
+    const summary = readFileSync(join(out, "SUMMARY.txt"), "utf8");
+    expect(summary).toMatch(/^ {2}quay crane data link: QPSK, /m);
+    expect(summary).toMatch(/^ {2}crane-yard talk-back, test tone: AM, /m);
+    expect(summary).toMatch(/^ {2}breakwater light carrier beacon: CW, /m);
+    expect(summary).not.toMatch(/: (psk|fm|am|cw) \d?/);
   });
 });

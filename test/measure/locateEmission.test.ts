@@ -126,3 +126,27 @@ describe("the DC-spike rule when the DC line is the strongest thing and spurs st
     expect(Math.abs(((r?.peakBinIndex as number) - 512) * psd.binWidthHz - 7300)).toBeLessThan(psd.binWidthHz);
   });
 });
+
+describe("locateEmission(psd, floor, { near })", () => {
+  // Two carriers: a strong one at +15 kHz (amplitude 0.3, −10.5 dBFS) and a weak one at −9 kHz
+  // (amplitude 0.01, −40 dBFS), both far above the 1e-4 FS noise (−80 dBFS per component pair).
+  const strong = tone(N, FS, 15_000, { amplitude: 0.3 });
+  const weak = tone(N, FS, -9_000, { amplitude: 0.01 });
+  const sum = strong.map((v, k) => v + (weak[k] as number));
+  const psd = psdOf(addNoise(sum, 1e-4, 7), 1024, FS);
+  const floor = noiseFloor(psd).densityPerHz;
+
+  it("without near picks the strongest region (the +15 kHz carrier)", () => {
+    const r = locateEmission(psd, floor);
+    expect((r?.lowerEdgeHz as number) < 15_000 && (r?.upperEdgeHz as number) > 15_000).toBe(true);
+  });
+
+  it("with a window around −9 kHz picks the weak carrier there, not the stronger one outside it", () => {
+    const r = locateEmission(psd, floor, { near: { offsetHz: -9_100, halfWidthHz: 1_000 } });
+    expect((r?.lowerEdgeHz as number) < -9_000 && (r?.upperEdgeHz as number) > -9_000).toBe(true);
+  });
+
+  it("returns null when no region reaches into the window (nothing at 0 ± 2 kHz)", () => {
+    expect(locateEmission(psd, floor, { near: { offsetHz: 0, halfWidthHz: 2_000 } })).toBeNull();
+  });
+});

@@ -35,7 +35,7 @@ describe("surveyMarkdown(report)", () => {
   });
 
   it("gives units, the bursts of a bursty link and the class with its order", () => {
-    expect(rows[1]).toMatch(/fsk 2/);
+    expect(rows[1]).toMatch(/\| 2FSK \|/); // displayClass: M-FSK written 2FSK (common practice)
     expect(rows[1]).toMatch(/9K12F1D/);
     expect(rows[1]).toMatch(/12 bursts/);
     expect(rows[1]).toMatch(/8 %/);
