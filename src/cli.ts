@@ -21,6 +21,7 @@ import { measureText } from "./report/measureText.js";
 import { surveyCommand } from "./commands/survey.js";
 import { surveyMarkdown } from "./report/index.js";
 import { MEASURE_MODES, type MeasureMode } from "./analysis/measureEmission.js";
+import { X_DB_REFERENCES, type XDbReference } from "./measure/index.js";
 import { parseOutPath, writeStdout } from "./cli/stdout.js";
 import { removeTemporaries } from "./report/index.js";
 import { checkCommand } from "./commands/check.js";
@@ -128,6 +129,7 @@ function program(): Command {
     .option("--nominal <Hz>", "assigned (nominal) carrier frequency, for the error in ppm; needs --center")
     .option("--reference-ppm <u>", "uncertainty of the receiver's frequency reference, ppm (k = 2), added to the carrier's uncertainty; without it the report says it is not included")
     .option("--xdb <dB>", "level below the spectral peak for the x-dB bandwidth", "26")
+    .addOption(new Option("--xdb-reference <trace>", "0 dB reference of the x-dB bandwidth: the maximum of the max-hold spectrum (peak-hold) or of the mean PSD (average)").choices(X_DB_REFERENCES).default("peak-hold"))
     .option("--audio-bw <Hz>", "audio low-pass before FM peak deviation and AM depth (clicks of noise are removed)", "3k")
     .addOption(new Option("--mode <class>", "take the emission as this class instead of classifying it").choices(MEASURE_MODES))
     .option("--order <n>", "order of a digital emission: 2, 4, 8 (psk), 16, 32, 64 (qam), 2 or 4 (fsk)")
@@ -145,7 +147,7 @@ function program(): Command {
       async (
         path: string,
         flags: RawCaptureFlags & {
-          channel?: string; nominal?: string; referencePpm?: string; xdb: string; audioBw: string; mode?: MeasureMode; out?: string; json?: boolean;
+          channel?: string; nominal?: string; referencePpm?: string; xdb: string; xdbReference: XDbReference; audioBw: string; mode?: MeasureMode; out?: string; json?: boolean;
           order?: string; symbolRate?: string; rolloff?: string;
         } & ArchiveAddFlags,
       ) => {
@@ -157,6 +159,7 @@ function program(): Command {
           nominalHz: flags.nominal === undefined ? undefined : parseQuantity("--nominal", flags.nominal, { unit: "Hz", min: 0 }),
           referencePpm: flags.referencePpm === undefined ? undefined : parseQuantity("--reference-ppm", flags.referencePpm, { unit: "none", min: 0 }),
           xDb: parseQuantity("--xdb", flags.xdb, { unit: "none", min: 0 }),
+          xDbReference: flags.xdbReference,
           audioBandwidthHz: parseQuantity("--audio-bw", flags.audioBw, { unit: "Hz", min: 0 }),
           mode: flags.mode,
           order: flags.order === undefined ? undefined : parseCount("--order", flags.order, 2),

@@ -60,7 +60,8 @@ async function writeFigures(w: FolderWriter, a: AnalysedCapture, f: EmissionFigu
   const put = (file: string, data: Uint8Array): Promise<void> => w.write(file, data);
   await put("spectrogram.png", spectrogramFigure(a, { title: name, widthPx: 1200, heightPx: 800, reduce: "mean" }).png);
   if (f.channelPsd !== null) {
-    const xDbLevel = r.bandwidth.xDbHz === null ? null : maxDb(f.channelPsd.densityPerHz) - r.bandwidth.xDb;
+    const reference = r.bandwidth.xDbReference === "peak-hold" ? f.channelPsd.maxHoldPerHz : f.channelPsd.densityPerHz;
+    const xDbLevel = r.bandwidth.xDbHz === null ? null : maxDb(reference) - r.bandwidth.xDb;
     await put(
       "spectrum.png",
       spectrumFigure({

@@ -36,7 +36,7 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
     { label: "Occupied bandwidth (99 %)", path: "bandwidth.occupiedHz", value: r.bandwidth.occupiedHz, unit: "Hz", digits: 0 },
     { label: "OBW lower edge (offset)", path: "bandwidth.lowerEdgeHz", value: r.bandwidth.lowerEdgeHz, unit: "Hz", digits: 0 },
     { label: "OBW upper edge (offset)", path: "bandwidth.upperEdgeHz", value: r.bandwidth.upperEdgeHz, unit: "Hz", digits: 0 },
-    { label: `${r.bandwidth.xDb} dB bandwidth`, path: "bandwidth.xDbHz", value: r.bandwidth.xDbHz, unit: "Hz", digits: 0 },
+    { label: `${r.bandwidth.xDb} dB bandwidth (${r.bandwidth.xDbReference === "peak-hold" ? "re max-hold maximum" : "re mean PSD maximum"})`, path: "bandwidth.xDbHz", value: r.bandwidth.xDbHz, unit: "Hz", digits: 0 },
     { label: "Channel power", path: "power.channelDbfs", value: r.power.channelDbfs, unit: "dBFS", digits: 2 },
     { label: "SNR (in channel)", path: "power.snrDb", value: r.power.snrDb, unit: "dB", digits: 1 },
   ];
@@ -117,6 +117,7 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
     `| --- | --- | --- |`,
     ...table,
     "",
+    ...xDbNote(r),
     ...referenceNote(r),
     `## Capture health`,
     "",
@@ -142,6 +143,15 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
     "",
   ];
   return lines.join("\n");
+}
+
+/** What the x-dB bandwidth is measured against (ITU-R SM.443 Annex 2: x dB below the maximum of the spectrum). */
+function xDbNote(r: MeasureReport): string[] {
+  if (r.bandwidth.xDbHz === null) return [];
+  const trace = r.bandwidth.xDbReference === "peak-hold"
+    ? "the maximum of the max-hold spectrum (the highest level each frequency reached over the span), with the edges on the max-hold trace"
+    : "the maximum of the mean (Welch) PSD, with the edges on the mean PSD; for FM this is the carrier line, and the figure reads narrower than a max-hold one";
+  return [`The ${r.bandwidth.xDb} dB bandwidth is measured ${r.bandwidth.xDb} dB below ${trace} (ITU-R SM.443 Annex 2: x dB below the maximum of the spectrum).`, ""];
 }
 
 /** One line on whether the carrier's uncertainty holds the receiver's frequency reference. */

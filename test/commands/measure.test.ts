@@ -58,6 +58,9 @@ describe("measureCommand(path, options)", () => {
     }
     expect(r.fm).not.toBeNull();
     expect(r.am).toBeNull();
+    // The x-dB bandwidth's reference by default: the max-hold maximum (docs/cli.md, `--xdb-reference`).
+    expect(report.bandwidth.xDbReference).toBe("peak-hold");
+    expect(report.methods["bandwidth.xDbHz"]).toMatch(/max-hold/);
     expect(typeof report.uncertainty).toBe("object");
   });
 
