@@ -89,7 +89,7 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
     .map((row) => cell(r, row))
     .filter((x): x is [string, string, string] => x !== null)
     .map(([a, b, u]) => `| ${a} | ${b} | ${u} |`);
-  const methods = Object.entries(r.methods).map(([k, v]) => `- \`${k}\`: ${v}`);
+  const methods = methodLines(r);
   const q = r.quality;
   const lines = [
     `# Emission measurement: ${basename(c.path)}`,
@@ -143,6 +143,29 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
     "",
   ];
   return lines.join("\n");
+}
+
+/**
+ * The methods, each line once with every figure it serves (an OBW and its edges share one), and
+ * only for figures the report holds: a method of a figure that is null (an EVM under an OOK
+ * result) is left out; why it is null is under "Figures not given".
+ */
+export function methodLines(r: MeasureReport): string[] {
+  const paths = new Map<string, string[]>();
+  for (const [path, method] of Object.entries(r.methods)) {
+    if (valueAt(r, path) == null) continue;
+    const group = paths.get(method);
+    if (group === undefined) paths.set(method, [path]);
+    else group.push(path);
+  }
+  return [...paths].map(([method, group]) => `- ${group.map((p) => `\`${p}\``).join(", ")}: ${method}`);
+}
+
+/** The report's value at a dotted path ("fsk.toneFrequenciesHz.0"), undefined where there is none. */
+function valueAt(r: MeasureReport, path: string): unknown {
+  let v: unknown = r;
+  for (const key of path.split(".")) v = v !== null && typeof v === "object" ? (v as Record<string, unknown>)[key] : undefined;
+  return v;
 }
 
 /** What the x-dB bandwidth is measured against (ITU-R SM.443 Annex 2: x dB below the maximum of the spectrum). */
