@@ -85,7 +85,7 @@ function program(): Command {
   )
     .requiredOption("-o, --out <file.png>", "the PNG to write (written to a temporary name, then renamed)")
     .option("--fft <n>", "FFT length of each frame, a power of two", String(SPECTROGRAM_DEFAULTS.fftLength))
-    .option("--rows <n>", "number of time rows, whatever the duration", String(SPECTROGRAM_DEFAULTS.rows))
+    .option("--rows <n>", "number of time rows (default one per pixel row of the plot; fewer when the span holds fewer frames)")
     .option("--size <WxH>", "image size in pixels", `${SPECTROGRAM_DEFAULTS.widthPx}x${SPECTROGRAM_DEFAULTS.heightPx}`)
     .option("--db-range <min:max>", "colour scale in dBFS/Hz, e.g. -150:-90 (default: from the noise floor to the peak)")
     .addOption(new Option("--reduce <how>", "combine the frames of a row by their mean or their maximum").choices(["mean", "max"]).default("mean"))
@@ -94,7 +94,7 @@ function program(): Command {
     .action(
       async (
         path: string,
-        flags: RawCaptureFlags & { out: string; fft: string; rows: string; size: string; dbRange?: string; reduce: "mean" | "max"; json?: boolean },
+        flags: RawCaptureFlags & { out: string; fft: string; rows?: string; size: string; dbRange?: string; reduce: "mean" | "max"; json?: boolean },
       ) => {
         const [widthPx, heightPx] = parseSize(flags.size);
         const progress = createProgress(`spectrogram ${path}`, !quiet());
@@ -102,7 +102,7 @@ function program(): Command {
           capture: captureArgs(flags),
           outputPath: parseOutPath("--out", flags.out),
           fftLength: parseFftLength("--fft", flags.fft),
-          rows: parseCount("--rows", flags.rows),
+          rows: flags.rows === undefined ? undefined : parseCount("--rows", flags.rows),
           widthPx,
           heightPx,
           dbRange: flags.dbRange === undefined ? undefined : parseDbRange(flags.dbRange),
