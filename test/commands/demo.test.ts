@@ -37,6 +37,12 @@ describe("demoCommand({ outDir })", () => {
     expect(summary.warnings.length).toBeLessThanOrEqual(4);
     expect(new Set(summary.warnings).size).toBe(summary.warnings.length);
     for (const w of summary.warnings) expect(w).not.toMatch(/lowerEdgeHz|upperEdgeHz/);
+    // Each measure folder's spectrogram is its channel's, not a copy of the whole capture's.
+    const site = join(out, "ostrel-bay-survey_165.2MHz_1Msps");
+    const whole = readFileSync(join(site, "spectrogram.png"));
+    const launch = readFileSync(join(site, "measure-launch", "spectrogram.png"));
+    expect(launch.equals(whole)).toBe(false);
+    expect(launch.equals(readFileSync(join(site, "measure-pilot", "spectrogram.png")))).toBe(false);
     const folders = readdirSync(out).filter((n) => !["captures", "SUMMARY.txt", "site-survey", "archive", "launch-history.png"].includes(n));
     // One folder per capture of the sample scenario (samples/README.md), named after its file.
     expect(folders.sort()).toEqual(SCENARIO_CAPTURES.map((c) => c.fileName.replace(/\.[^.]+$/, "")).sort());
