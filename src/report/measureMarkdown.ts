@@ -6,7 +6,7 @@
  */
 import { basename } from "node:path";
 import type { MeasureReport } from "./measureReport.js";
-import { formatHz, formatRate, formatSeconds, formatUncertainty, uncertaintyDecimals } from "./format.js";
+import { formatHz, formatRate, formatSeconds, formatUncertainty, groupDigits, uncertaintyDecimals } from "./format.js";
 import { REFERENCE_NOT_INCLUDED } from "../measure/index.js";
 
 interface Row {
@@ -22,7 +22,10 @@ function cell(r: MeasureReport, row: Row): [string, string, string] | null {
   const u = r.uncertainty[row.path];
   // The value to the same decimal place as its uncertainty (GUM §7.2.6).
   const digits = u === undefined ? row.digits : uncertaintyDecimals(u, row.digits);
-  const value = `${row.value.toFixed(digits)} ${row.unit}`.trim();
+  // An absolute frequency in MHz, grouped in threes (formatHz), to the same decimal place in Hz.
+  const value = row.unit === "Hz" && Math.abs(row.value) >= 1e6
+    ? `${groupDigits((row.value / 1e6).toFixed(digits + 6))} MHz`
+    : `${row.value.toFixed(digits)} ${row.unit}`.trim();
   const unc = u === undefined ? "" : formatUncertainty(u, row.digits, row.unit);
   return [row.label, value, unc];
 }

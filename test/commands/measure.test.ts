@@ -9,6 +9,7 @@ import { describe, expect, it } from "vitest";
 import { encodeSamples } from "../../src/capture/index.js";
 import { measureCommand } from "../../src/commands/measure.js";
 import { measureText } from "../../src/report/measureText.js";
+import { measureMarkdown } from "../../src/report/measureMarkdown.js";
 import { SeededRandom, amFromAudio, burstGate, complexNoise, fmFromAudio, frequencyShift, nrzLevels, randomSymbols, rrcPsk, toneAudio } from "../../src/scenario/index.js";
 import { runCli } from "../helpers/runCli.js";
 
@@ -92,6 +93,8 @@ describe("measureCommand(path, options)", () => {
     expect(text).toMatch(/carrier frequency\s+156\.840 0\d\d MHz/);
     // Necessary bandwidth of tone FM, 47 CFR 2.202(g): 2M + 2D = 2·1000 + 2·5000 = 12 kHz.
     expect(text).toMatch(/necessary bandwidth\s+1[12]\.\d{3} kHz/);
+    // report.md too: the carrier frequency in MHz, grouped, to the decimal place of its uncertainty.
+    expect(measureMarkdown(report, [])).toMatch(/\| Carrier frequency \| 156\.8(39 9|40 0)[\d ]* MHz \| ± [\d.]+ Hz \|/);
   });
 
   it("writes a complete report folder: report.json last, report.md, PNGs that decode (pngjs)", async () => {
