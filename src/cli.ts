@@ -23,6 +23,7 @@ import { surveyCommand } from "./commands/survey.js";
 import { surveyMarkdown } from "./report/index.js";
 import { MEASURE_MODES, type MeasureMode } from "./analysis/measureEmission.js";
 import type { ChannelRequest } from "./analysis/channelRequest.js";
+import { X_DB_REFERENCES, type XDbReference } from "./measure/index.js";
 import { parseOutPath, writeStdout } from "./cli/stdout.js";
 import { removeTemporaries } from "./report/index.js";
 import { checkCommand } from "./commands/check.js";
@@ -99,7 +100,7 @@ function program(): Command {
   )
     .requiredOption("-o, --out <file.png>", "the PNG to write (written to a temporary name, then renamed)")
     .option("--fft <n>", "FFT length of each frame, a power of two", String(SPECTROGRAM_DEFAULTS.fftLength))
-    .option("--rows <n>", "number of time rows, whatever the duration", String(SPECTROGRAM_DEFAULTS.rows))
+    .option("--rows <n>", "number of time rows (default one per pixel row of the plot; fewer when the span holds fewer frames)")
     .option("--size <WxH>", "image size in pixels", `${SPECTROGRAM_DEFAULTS.widthPx}x${SPECTROGRAM_DEFAULTS.heightPx}`)
     .option("--db-range <min:max>", "colour scale in dBFS/Hz, e.g. -150:-90 (default: from the noise floor to the peak)")
     .addOption(new Option("--reduce <how>", "combine the frames of a row by their mean or their maximum").choices(["mean", "max"]).default("mean"))
@@ -107,7 +108,7 @@ function program(): Command {
     .action(
       async (
         path: string,
-        flags: RawCaptureFlags & { out: string; fft: string; rows: string; size: string; dbRange?: string; reduce: "mean" | "max"; json?: boolean },
+        flags: RawCaptureFlags & { out: string; fft: string; rows?: string; size: string; dbRange?: string; reduce: "mean" | "max"; json?: boolean },
       ) => {
         const [widthPx, heightPx] = parseSize(flags.size);
         const progress = createProgress(`spectrogram ${path}`, !quiet());
@@ -115,7 +116,7 @@ function program(): Command {
           capture: captureArgs(flags),
           outputPath: parseOutPath("--out", flags.out),
           fftLength: parseFftLength("--fft", flags.fft),
-          rows: parseCount("--rows", flags.rows),
+          rows: flags.rows === undefined ? undefined : parseCount("--rows", flags.rows),
           widthPx,
           heightPx,
           dbRange: flags.dbRange === undefined ? undefined : parseDbRange(flags.dbRange),
@@ -142,6 +143,7 @@ function program(): Command {
     .option("--nominal <Hz>", "assigned (nominal) carrier frequency, for the error in ppm; without --channel the emission nearest it is measured; needs --center")
     .option("--reference-ppm <u>", "uncertainty of the receiver's frequency reference, ppm (k = 2), added to the carrier's uncertainty; without it the report says it is not included")
     .option("--xdb <dB>", "level below the spectral peak for the x-dB bandwidth", "26")
+    .addOption(new Option("--xdb-reference <trace>", "0 dB reference of the x-dB bandwidth: the maximum of the max-hold spectrum (peak-hold) or of the mean PSD (average)").choices(X_DB_REFERENCES).default("peak-hold"))
     .option("--audio-bw <Hz>", "audio low-pass before FM peak deviation and AM depth (clicks of noise are removed)", "3k")
     .addOption(new Option("--mode <class>", "take the emission as this class instead of classifying it").choices(MEASURE_MODES))
     .option("--order <n>", "order of a digital emission: 2, 4, 8 (psk), 16, 32, 64 (qam), 2 or 4 (fsk)")
@@ -159,7 +161,7 @@ function program(): Command {
       async (
         path: string,
         flags: RawCaptureFlags & {
-          channel?: string; nominal?: string; referencePpm?: string; xdb: string; audioBw: string; mode?: MeasureMode; out?: string; json?: boolean;
+          channel?: string; nominal?: string; referencePpm?: string; xdb: string; xdbReference: XDbReference; audioBw: string; mode?: MeasureMode; out?: string; json?: boolean;
           order?: string; symbolRate?: string; rolloff?: string;
         } & ArchiveAddFlags,
       ) => {
@@ -171,6 +173,7 @@ function program(): Command {
           nominalHz: flags.nominal === undefined ? undefined : parseQuantity("--nominal", flags.nominal, { unit: "Hz", min: 0 }),
           referencePpm: flags.referencePpm === undefined ? undefined : parseQuantity("--reference-ppm", flags.referencePpm, { unit: "none", min: 0 }),
           xDb: parseQuantity("--xdb", flags.xdb, { unit: "none", min: 0 }),
+          xDbReference: flags.xdbReference,
           audioBandwidthHz: parseQuantity("--audio-bw", flags.audioBw, { unit: "Hz", min: 0 }),
           mode: flags.mode,
           order: flags.order === undefined ? undefined : parseCount("--order", flags.order, 2),

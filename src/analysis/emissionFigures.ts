@@ -103,6 +103,8 @@ export interface EmissionFigures {
     readonly xDbLowerEdgeHz: Measurement;
     readonly xDbUpperEdgeHz: Measurement;
     readonly xDb: number;
+    /** The x-dB bandwidth's 0 dB reference: the mean PSD's maximum or the max-hold's. */
+    readonly xDbReference: "average" | "peak-hold";
     readonly resolutionHz: number;
   };
   readonly power: { readonly channelDbfs: Measurement; readonly snrDb: Measurement };

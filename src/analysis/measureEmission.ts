@@ -34,6 +34,7 @@ import {
   type Segments,
   type DesignatorClass,
   type Measurement,
+  type XDbReference,
 } from "../measure/index.js";
 import type { Pass1Result } from "./pass1.js";
 import { runPass2, type Pass2Result, type Pass2WholeSpan } from "./pass2.js";
@@ -42,6 +43,7 @@ import { correctedOffsetHz, reportedOffsetOfHz } from "./clockCorrection.js";
 import { locateNearNominal } from "./nearNominal.js";
 import type { AmFiguresOut, DigitalFiguresOut, EmissionFigures, FmFiguresOut, FskFiguresOut, OokFiguresOut } from "./emissionFigures.js";
 import { digitalEmission } from "./digitalEmission.js";
+import { audioNarrowedNote, dcSpikeNote } from "./measureNotes.js";
 import { keyedBursts, keyedDecision, type KeyedDecision } from "./keyedEmission.js";
 
 /** Classes `--mode` can force. */
@@ -58,6 +60,9 @@ export interface MeasureEmissionOptions {
   readonly referencePpm?: number | undefined;
   /** Level below the spectral peak for the x-dB bandwidth, dB (default 26). */
   readonly xDb?: number | undefined;
+  /** The x-dB bandwidth's 0 dB reference (xDbBandwidth.ts): default "peak-hold", the maximum of
+   * the max-hold spectrum, with the edges on the max-hold trace (`--xdb-reference`). */
+  readonly xDbReference?: XDbReference | undefined;
   /** Audio low-pass before FM peak deviation and AM depth, Hz (default 3000). */
   readonly audioBandwidthHz?: number | undefined;
   readonly mode?: MeasureMode | undefined;
@@ -84,7 +89,7 @@ export interface MeasureEmissionOptions {
   readonly onProgress?: ((doneSamples: number, totalSamples: number) => void) | undefined;
 }
 
-export const MEASURE_DEFAULTS = { xDb: 26, audioBandwidthHz: 3000 } as const;
+export const MEASURE_DEFAULTS = { xDb: 26, xDbReference: "peak-hold", audioBandwidthHz: 3000 } as const;
 
 export async function measureEmission(
   source: CaptureSource,
@@ -95,13 +100,14 @@ export async function measureEmission(
   const meta = source.meta;
   const fs = meta.sampleRateHz;
   const xDb = options.xDb ?? MEASURE_DEFAULTS.xDb;
+  const xDbSpec = { xDb, reference: options.xDbReference ?? MEASURE_DEFAULTS.xDbReference };
   const audioBandwidthHz = options.audioBandwidthHz ?? MEASURE_DEFAULTS.audioBandwidthHz;
   checkMeasureOptions(options, meta, span);
   const warnings: string[] = [];
   const floor = usableFloor(pass1.psd, pass1.noiseFloor.densityPerHz);
   if (floor === null) {
     warnings.push("the analysed span holds no signal (every sample is zero, or was not finite and read as 0): nothing to measure");
-    return noEmission(pass1, { present: false, levelDbfs: null, widthHz: null }, xDb, options.nominalHz ?? null, warnings);
+    return noEmission(pass1, { present: false, levelDbfs: null, widthHz: null }, xDbSpec, options.nominalHz ?? null, warnings);
   }
   const dcOffsetDbfs = pass1.health.dcOffsetDbfs;
   const dc = detectDcSpike(pass1.psd, floor, { dcOffsetDbfs });
@@ -113,10 +119,8 @@ export async function measureEmission(
   const region = near === null ? locateEmission(pass1.psd, floor, { channel: options.channel, dcOffsetDbfs }) : near.region;
   if (region === null) {
     warnings.push("no emission stands above the noise floor: nothing to measure");
-    return noEmission(pass1, dcSpike, xDb, options.nominalHz ?? null, warnings);
+    return noEmission(pass1, dcSpike, xDbSpec, options.nominalHz ?? null, warnings);
   }
-  if (region.dcSpikeSkipped) warnings.push(`a receiver DC spike at 0 Hz (${dc.levelDbfs.toFixed(1)} dBFS) was not taken for the emission`);
-  else if (region.dcSpikeInside) warnings.push(`the line at 0 Hz (${dc.levelDbfs.toFixed(1)} dBFS) lies inside the emission and was measured as part of it: it may be the receiver's DC spike rather than a carrier`);
 
   // The channel to extract: the user's, or the region found with room for its skirts.
   const givenByUser = options.channel !== undefined && options.extractedChannel === undefined;
@@ -126,6 +130,8 @@ export async function measureEmission(
   // bandwidth (two sidebands of --audio-bw with room for the filter's skirts), so they are kept.
   const minAutoHz = Math.max(16 * pass1.psd.binWidthHz, 2.5 * audioBandwidthHz);
   const widthHz = Math.min(options.channel?.widthHz ?? Math.max(region.widthHz * 1.6, minAutoHz), 0.9 * fs);
+  const dcNote = dcSpikeNote({ skipped: region.dcSpikeSkipped, inside: region.dcSpikeInside, levelDbfs: dc.levelDbfs }, { offsetHz, widthHz });
+  if (dcNote !== null) warnings.push(dcNote);
   const pass2 = options.extractedChannel
     ?? await runPass2(source, span, {
       offsetHz, bandwidthHz: widthHz, maxSamples: options.maxChannelSamples, onProgress: options.onProgress,
@@ -141,16 +147,13 @@ export async function measureEmission(
   const half = widthHz / 2;
   // The audio low-pass must fit below the channel's Nyquist frequency (with its transition band).
   const audioHz = Math.min(audioBandwidthHz, 0.39 * fsc);
-  const audioNarrowed = audioHz < audioBandwidthHz
-    ? `the audio low-pass is narrowed from ${audioBandwidthHz} Hz to ${audioHz.toFixed(0)} Hz to fit the ${fsc.toFixed(0)} S/s channel (widen --channel to keep it)`
-    : null;
   const psd = whole?.psd ?? channelPsd(pass2.iq, fsc, widthHz);
   if (psd === null) {
     warnings.push("the channel holds too few samples to estimate its spectrum");
-    return noEmission(pass1, dcSpike, xDb, options.nominalHz ?? null, warnings);
+    return noEmission(pass1, dcSpike, xDbSpec, options.nominalHz ?? null, warnings);
   }
   const obw = occupiedBandwidth(psd, { lowerHz: -half, upperHz: half, noiseFloorPerHz: floor });
-  const xdb = xDbBandwidth(psd, { lowerHz: -half, upperHz: half, xDb });
+  const xdb = xDbBandwidth(psd, { lowerHz: -half, upperHz: half, ...xDbSpec });
   const pw = channelPower(psd, { lowerHz: -half, upperHz: half, noiseFloorPerHz: floor, occupiedHz: obw.occupiedHz.value ?? undefined, occupiedUncertaintyHz: obw.occupiedHz.uncertainty });
   const features = analogFeatures(pass2.iq, fsc, psd, { noiseFloorPerHz: floor, snrDb: pw.snrDb.value, lowerHz: -half, upperHz: half, audioBandwidthHz: audioHz });
   const analog = classifyAnalog(features);
@@ -198,7 +201,8 @@ export async function measureEmission(
   let ook: OokFiguresOut | null = null;
   let necessary: Measurement = notAvailable("Hz", "47 CFR 2.202(g) / ITU-R SM.1138", "no necessary-bandwidth formula applies to this class");
   // The audio low-pass only matters to the classes with audio figures.
-  if (audioNarrowed !== null && (cls === "fm" || cls === "am")) warnings.push(audioNarrowed);
+  const audioNote = audioNarrowedNote(cls, audioBandwidthHz, audioHz, fsc);
+  if (audioNote !== null) warnings.push(audioNote);
   if (cls === "fm") {
     const f = withWholeSpanPeaks(fmFigures(iq, fsc, { audioBandwidthHz: audioHz, noiseFloorPerHz: floor }), whole, offsetHz);
     carrier = f.carrierOffsetHz;
@@ -289,6 +293,9 @@ export async function measureEmission(
   const designator = emissionDesignator({ class: cls, bandwidthHz: basis.bandwidthHz });
   const designatorReason = designator.reason === "no bandwidth to state" && basis.reason !== null ? basis.reason : designator.reason;
   if (designatorReason !== null) warnings.push(`no emission designator: ${designatorReason}`);
+  // That reason already says the resolution bounds the occupied bandwidth: the bandwidth's own
+  // resolution note would say it a second time.
+  const occupied = basis.reason === null ? obw : withoutResolutionNote(obw);
 
   return {
     channel: {
@@ -302,13 +309,14 @@ export async function measureEmission(
     dcSpike,
     carrier: { offsetHz: carrierOffset, frequencyHz: carrierRf, errorPpm, nominalHz },
     bandwidth: {
-      occupiedHz: obw.occupiedHz,
-      lowerEdgeHz: toCapture(obw.lowerEdgeHz),
-      upperEdgeHz: toCapture(obw.upperEdgeHz),
+      occupiedHz: occupied.occupiedHz,
+      lowerEdgeHz: toCapture(occupied.lowerEdgeHz),
+      upperEdgeHz: toCapture(occupied.upperEdgeHz),
       xDbHz: xdb.bandwidthHz,
       xDbLowerEdgeHz: toCapture(xdb.lowerEdgeHz),
       xDbUpperEdgeHz: toCapture(xdb.upperEdgeHz),
       xDb,
+      xDbReference: xdb.reference,
       resolutionHz: psd.enbwHz,
     },
     power: { channelDbfs: pw.channelDbfs, snrDb: pw.snrDb },
@@ -438,6 +446,12 @@ function designatorBandwidth(
     return { bandwidthHz: null, basis: "occupied", method, reason: `the occupied bandwidth ${obw.toFixed(1)} Hz is an upper bound set by the ${resolutionHz.toFixed(2)} Hz resolution: no bandwidth code` };
   }
   return { bandwidthHz: obw, basis: "occupied", method, reason: null };
+}
+
+/** The occupied bandwidth and its edges without the note that the resolution widens them. */
+function withoutResolutionNote<T extends Record<"occupiedHz" | "lowerEdgeHz" | "upperEdgeHz", Measurement>>(obw: T): T {
+  const strip = (m: Measurement): Measurement => ({ ...m, warnings: m.warnings.filter((w) => !w.startsWith("resolution ")) });
+  return { ...obw, occupiedHz: strip(obw.occupiedHz), lowerEdgeHz: strip(obw.lowerEdgeHz), upperEdgeHz: strip(obw.upperEdgeHz) };
 }
 
 /**
@@ -593,7 +607,7 @@ function usableFloor(psd: WelchPsd, floor: number): number | null {
 function noEmission(
   pass1: Pass1Result,
   dcSpike: EmissionFigures["dcSpike"],
-  xDb: number,
+  { xDb, reference }: { readonly xDb: number; readonly reference: XDbReference },
   nominalHz: number | null,
   warnings: string[],
 ): EmissionFigures {
@@ -610,6 +624,7 @@ function noEmission(
       xDbLowerEdgeHz: none("Hz", "x-dB edge"),
       xDbUpperEdgeHz: none("Hz", "x-dB edge"),
       xDb,
+      xDbReference: reference,
       resolutionHz: pass1.psd.enbwHz,
     },
     power: { channelDbfs: none("Dbfs", "channel power"), snrDb: none("Db", "SNR") },

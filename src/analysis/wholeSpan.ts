@@ -240,7 +240,7 @@ export class WholeSpanAccumulator {
     if (!(wanted > 0 && Number.isFinite(wanted))) throw new RangeError(`audioBandwidthHz ${wanted} is not a positive finite frequency`);
     if (options.carrierOffsetHz !== undefined && !Number.isFinite(options.carrierOffsetHz)) throw new RangeError(`carrierOffsetHz ${options.carrierOffsetHz} is not finite`);
     this.audioHz = Math.min(wanted, 0.39 * fsc);
-    if (this.audioHz < wanted) this.warnings.push(`the audio low-pass is narrowed from ${wanted} Hz to ${this.audioHz.toFixed(0)} Hz to fit the ${fsc.toFixed(0)} S/s channel`);
+    // A narrowed low-pass is noted by measureEmission, which knows whether the class reads audio.
     const h = audioLowpassTaps(this.audioHz, fsc);
     this.audioTaps = h.length;
     this.taps = h;

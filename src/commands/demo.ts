@@ -78,7 +78,8 @@ export async function demoCommand(options: DemoOptions): Promise<DemoSummary> {
   lines.push("Results are indicative; see iqaudit --help for the cautions of transmitter testing.", "");
   const text = lines.join("\n");
   await writeFileAtomic(join(options.outDir, "SUMMARY.txt"), text);
-  return { outDir: options.outDir, files: written, text, warnings };
+  // The same note of two captures (one emission measured in both) is said of each; a line repeated word for word, once.
+  return { outDir: options.outDir, files: written, text, warnings: [...new Set(warnings)] };
 }
 
 /** A demo capture folder: inspect.json is its manifest; folders of an earlier version had no `files` in it. */

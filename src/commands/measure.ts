@@ -13,6 +13,7 @@ import { buildMeasureReport, type MeasureReport } from "../report/measureReport.
 import { measureMarkdown } from "../report/measureMarkdown.js";
 import { constellationFigure, frequencyHistogramFigure, spectrumFigure, traceFigure } from "../report/measureFigures.js";
 import { spectrogramFigure } from "../report/spectrogramFigure.js";
+import { spectrogramPlotRows, type SpectrogramRegion } from "../render/index.js";
 import { publishFolder, REPORT_FOLDER, type FolderWriter } from "../report/index.js";
 import { formatHz } from "../report/format.js";
 
@@ -46,7 +47,8 @@ export async function measureCommand(path: string, options: MeasureOptions): Pro
 /** Pass 1, pass 2 and the report, handed to `then` while the capture is open. */
 async function measured<T>(path: string, options: MeasureOptions, then: (a: AnalysedCapture, f: EmissionFigures, r: MeasureReport) => Promise<T>): Promise<T> {
   let resolved: MeasureOptions = options;
-  return withAnalysedCapture(path, options.capture, options.pass1 ?? {}, async (a, source) => {
+  const pass1 = { spectrogramRows: spectrogramPlotRows(FIGURE_SIZE.widthPx, FIGURE_SIZE.heightPx), ...options.pass1 };
+  return withAnalysedCapture(path, options.capture, pass1, async (a, source) => {
     const figures = await measureEmission(source, a.span, a.pass1, resolved);
     return then(a, figures, buildMeasureReport(a.meta, a.span, a.pass1, figures, a.warnings));
   }, (meta, span) => {
@@ -69,9 +71,10 @@ export async function writeReportFolder(w: FolderWriter, a: AnalysedCapture, f: 
 async function writeFigures(w: FolderWriter, a: AnalysedCapture, f: EmissionFigures, r: MeasureReport): Promise<void> {
   const name = basename(a.meta.path);
   const put = (file: string, data: Uint8Array): Promise<void> => w.write(file, data);
-  await put("spectrogram.png", spectrogramFigure(a, { title: name, widthPx: 1200, heightPx: 800, reduce: "mean" }).png);
+  await put("spectrogram.png", channelSpectrogram(a, f, r, name));
   if (f.channelPsd !== null) {
-    const xDbLevel = r.bandwidth.xDbHz === null ? null : maxDb(f.channelPsd.densityPerHz) - r.bandwidth.xDb;
+    const reference = r.bandwidth.xDbReference === "peak-hold" ? f.channelPsd.maxHoldPerHz : f.channelPsd.densityPerHz;
+    const xDbLevel = r.bandwidth.xDbHz === null ? null : maxDb(reference) - r.bandwidth.xDb;
     await put(
       "spectrum.png",
       spectrumFigure({
@@ -84,6 +87,7 @@ async function writeFigures(w: FolderWriter, a: AnalysedCapture, f: EmissionFigu
         upperEdgeHz: r.bandwidth.upperEdgeHz,
         carrierOffsetHz: r.carrier.offsetHz,
         xDb: r.bandwidth.xDb,
+        xDbReference: r.bandwidth.xDbReference,
         xDbLevelDbfsPerHz: xDbLevel,
         noiseFloorDbfsPerHz: f.noiseFloorDbfsPerHz,
       }),
@@ -152,6 +156,33 @@ async function writeFigures(w: FolderWriter, a: AnalysedCapture, f: EmissionFigu
     );
   }
 }
+
+/**
+ * The measured channel's part of the pass-1 spectrogram: the frequency axis the channel with a
+ * tenth of its width each side, the channel (dashed) and the 99 % OBW edges (solid) boxed over
+ * the whole time span.
+ */
+function channelSpectrogram(a: AnalysedCapture, f: EmissionFigures, r: MeasureReport, name: string): Buffer {
+  const { offsetHz, widthHz } = f.channel;
+  const whole = { title: `Spectrogram of the measured channel: ${name}`, widthPx: FIGURE_SIZE.widthPx, heightPx: FIGURE_SIZE.heightPx, reduce: "mean" as const };
+  if (!(widthHz > 0)) return spectrogramFigure(a, { ...whole, title: name }).png;
+  const spanS = a.span.sampleCount / a.meta.sampleRateHz;
+  const lower = r.bandwidth.lowerEdgeHz;
+  const upper = r.bandwidth.upperEdgeHz;
+  const regions: SpectrogramRegion[] = [
+    { lowerHz: offsetHz - widthHz / 2, upperHz: offsetHz + widthHz / 2, startS: 0, endS: spanS, label: "channel", kind: "artefact" },
+    ...(lower === null || upper === null ? [] : [{ lowerHz: lower, upperHz: upper, startS: 0, endS: spanS, label: "99 % OBW", kind: "emission" as const }]),
+  ];
+  const margin = 0.1 * widthHz;
+  return spectrogramFigure(a, {
+    ...whole,
+    frequencyWindowHz: { lowerHz: offsetHz - widthHz / 2 - margin, upperHz: offsetHz + widthHz / 2 + margin },
+    regions,
+  }).png;
+}
+
+/** The size of a measure report's spectrogram, and so its default row count (one per pixel row of the plot). */
+const FIGURE_SIZE = { widthPx: 1200, heightPx: 800 } as const;
 
 function maxDb(d: Float64Array): number {
   let m = 0;

@@ -4,6 +4,7 @@ import { analyseCapture, type CaptureArgs } from "./analyseCapture.js";
 import { spectrogramFigure } from "../report/spectrogramFigure.js";
 import { checkFileTarget, writeFileAtomic, type FolderWriter } from "../report/index.js";
 import type { Pass1Options } from "../analysis/index.js";
+import { spectrogramPlotRows } from "../render/index.js";
 
 export interface SpectrogramOptions {
   readonly capture: CaptureArgs;
@@ -38,7 +39,8 @@ export interface SpectrogramSummary {
   readonly warnings: readonly string[];
 }
 
-export const SPECTROGRAM_DEFAULTS = { fftLength: 1024, rows: 1000, widthPx: 1200, heightPx: 800, reduce: "mean" } as const;
+/** Defaults; the row count is one per pixel row of the plot (spectrogramPlotRows). */
+export const SPECTROGRAM_DEFAULTS = { fftLength: 1024, widthPx: 1200, heightPx: 800, reduce: "mean" } as const;
 
 export async function spectrogramCommand(path: string, options: SpectrogramOptions): Promise<SpectrogramSummary> {
   const folder = options.outFolder;
@@ -46,7 +48,8 @@ export async function spectrogramCommand(path: string, options: SpectrogramOptio
   const a = await analyseCapture(path, options.capture, {
     ...options.pass1,
     spectrogramFftLength: options.fftLength ?? SPECTROGRAM_DEFAULTS.fftLength,
-    spectrogramRows: options.rows ?? SPECTROGRAM_DEFAULTS.rows,
+    // Default: one row per pixel row of the plot (fewer when the span holds fewer frames).
+    spectrogramRows: options.rows ?? spectrogramPlotRows(options.widthPx ?? SPECTROGRAM_DEFAULTS.widthPx, options.heightPx ?? SPECTROGRAM_DEFAULTS.heightPx),
   });
   const figure = spectrogramFigure(a, {
     title: basename(path),

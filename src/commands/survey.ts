@@ -62,7 +62,7 @@ function surveyReportOf(a: AnalysedCapture, r: SurveyResult): SurveyReport {
     extraction: "every emission's channel from one read of the file (overlap-save channelizer, docs/methods.md), over the time the emission is present",
     emissions: "each emission measured as `iqaudit measure` does on its own channel (its report in `report`)",
   };
-  return buildSurveyReport(a.meta, a.span, a.pass1, r.detection.emissions, reports, methods, [...a.warnings, ...r.warnings]);
+  return buildSurveyReport(a.meta, a.span, a.pass1, r.detection.emissions, reports, methods, [...new Set([...a.warnings, ...r.warnings])]);
 }
 
 /** survey.png, one sub-folder per emission, survey.md, then survey.json listing them all. */

@@ -21,7 +21,7 @@ export { toneFrequency, psdCentroidHz } from "./carrierFrequency.js";
 export {
   occupiedBandwidth, OCCUPIED_BANDWIDTH_DEFAULTS, type OccupiedBandwidth, type OccupiedBandwidthOptions,
 } from "./occupiedBandwidth.js";
-export { xDbBandwidth, X_DB_BANDWIDTH_DEFAULTS, type XDbBandwidth, type XDbBandwidthOptions } from "./xDbBandwidth.js";
+export { xDbBandwidth, X_DB_BANDWIDTH_DEFAULTS, X_DB_REFERENCES, type XDbBandwidth, type XDbBandwidthOptions, type XDbReference } from "./xDbBandwidth.js";
 export { channelPower, type ChannelPower, type ChannelPowerOptions } from "./channelPower.js";
 export { analogFeatures, amNoiseLevelShareMax, type AnalogFeatures, type AnalogFeaturesOptions } from "./analogFeatures.js";
 export {

@@ -1,5 +1,6 @@
 import { textHeightPx, textWidthPx } from "./font.js";
 import type { Rgb, RgbaCanvas } from "./raster.js";
+import { wrapText } from "./wrapText.js";
 
 /** The page style shared by every figure: a white page, dark ink, a grey frame. */
 export const PAGE_STYLE = {
@@ -47,19 +48,24 @@ export function fitText(text: string, maxWidthPx: number, scale: number): string
 }
 
 /**
- * Draws the title (font scale + 1) and subtitle (secondary ink) at the top left of the page and
- * returns the y coordinate just below them, in pixels.
+ * Draws the title (font scale + 1) and subtitle (secondary ink) at the top left of the page,
+ * each wrapped onto as many lines as it needs (wrapText: never cut short), and returns the y
+ * coordinate just below them, in pixels.
  */
 export function drawTitleBlock(canvas: RgbaCanvas, title: string, subtitle: string, textScale: number): number {
   const pad = pagePaddingPx(textScale);
   const maxWidth = canvas.width - 2 * pad;
   const titleScale = textScale + 1;
   let y = pad;
-  canvas.text(fitText(title, maxWidth, titleScale), pad, y, PAGE_STYLE.inkColour, { scale: titleScale });
-  y += textHeightPx(titleScale) + 2 * textScale;
+  for (const line of wrapText(title, maxWidth, titleScale)) {
+    canvas.text(line, pad, y, PAGE_STYLE.inkColour, { scale: titleScale });
+    y += textHeightPx(titleScale) + 2 * textScale;
+  }
   if (subtitle !== "") {
-    canvas.text(fitText(subtitle, maxWidth, textScale), pad, y, PAGE_STYLE.secondaryInkColour, { scale: textScale });
-    y += textHeightPx(textScale);
+    for (const line of wrapText(subtitle, maxWidth, textScale)) {
+      canvas.text(line, pad, y, PAGE_STYLE.secondaryInkColour, { scale: textScale });
+      y += textHeightPx(textScale);
+    }
   }
   return y;
 }

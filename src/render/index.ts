@@ -60,6 +60,7 @@ export {
 } from "./axes.js";
 export { drawColourBar, colourBarWidthPx, colourBarLabelDepthPx, type ColourBarStyle } from "./colourBar.js";
 export { PAGE_STYLE, MIN_FIGURE_SIZE, checkFigureSize, textScaleFor, pagePaddingPx, fitText, drawTitleBlock } from "./figureFrame.js";
+export { wrapText } from "./wrapText.js";
 export { encodePng } from "./encodePng.js";
 export {
   autoDbRange,
@@ -68,7 +69,7 @@ export {
   AUTO_DB_RANGE_MIN_SPAN_DB,
   AUTO_DB_RANGE_FLOOR_PERCENTILE,
 } from "./autoDbRange.js";
-export { renderSpectrogram, type SpectrogramFigureInput, type SpectrogramRegion, type FigureLayout } from "./spectrogramFigure.js";
+export { renderSpectrogram, spectrogramPlotRows, type SpectrogramFigureInput, type SpectrogramRegion, type FigureLayout } from "./spectrogramFigure.js";
 export {
   renderLineFigure,
   SERIES_COLOURS,

@@ -4,6 +4,7 @@ import { COLOUR_RAMP_RGB, rampIndex } from "./colourRamp.js";
 import { encodePng } from "./encodePng.js";
 import { checkFigureSize, drawTitleBlock, PAGE_STYLE, pagePaddingPx, textScaleFor } from "./figureFrame.js";
 import { measureText, RgbaCanvas, type Rgb } from "./raster.js";
+import { textHeightPx } from "./font.js";
 
 /** What a spectrogram figure shows. Frequencies in Hz, times in s, levels in `unitLabel`. */
 export interface SpectrogramFigureInput {
@@ -101,6 +102,18 @@ function checkInput(input: SpectrogramFigureInput): void {
     throw new RangeError(`renderSpectrogram: timeStopS ${input.timeStopS} must exceed timeStartS ${input.timeStartS}`);
   if (!(input.dbRange.maxDb > input.dbRange.minDb))
     throw new RangeError(`renderSpectrogram: dbRange.maxDb ${input.dbRange.maxDb} must exceed minDb ${input.dbRange.minDb}`);
+}
+
+/**
+ * The plot height, in pixel rows, of a widthPx × heightPx spectrogram figure with a one-line
+ * title and a one-line subtitle (the layout of renderSpectrogram): the default number of
+ * spectrogram rows, one row per pixel row, so that no row is hidden by the max over rows and
+ * none is drawn twice. A title that wraps makes the plot a little shorter; the rows then fold by max.
+ */
+export function spectrogramPlotRows(widthPx: number, heightPx: number): number {
+  const s = textScaleFor(widthPx, heightPx);
+  const titleBottom = pagePaddingPx(s) + textHeightPx(s + 1) + 2 * s + textHeightPx(s);
+  return Math.max(1, heightPx - pagePaddingPx(s) - xAxisDepthPx(s) - (titleBottom + 10 * s));
 }
 
 /**

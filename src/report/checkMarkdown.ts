@@ -6,7 +6,7 @@
 import type { CheckEntry } from "../licence/index.js";
 import type { CheckReport } from "./checkReport.js";
 import { digitsOf } from "./checkText.js";
-import { formatUncertainty } from "./format.js";
+import { formatHz, formatUncertainty } from "./format.js";
 
 const DECISION_WORDS: Record<string, string> = {
   pass: "pass",
@@ -90,5 +90,5 @@ function licenceLines(r: CheckReport): string[] {
 }
 
 function hz(x: number): string {
-  return Math.abs(x) >= 1e6 ? `${(x / 1e6).toFixed(6)} MHz` : Math.abs(x) >= 1e3 ? `${(x / 1e3).toFixed(3)} kHz` : `${x.toFixed(1)} Hz`;
+  return formatHz(x);
 }

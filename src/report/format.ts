@@ -1,12 +1,30 @@
 /** Number formatting for text a person reads: SI-scaled frequencies, fixed decimals, byte sizes. */
 
-/** "156.800 000 MHz"-style: Hz scaled to Hz/kHz/MHz/GHz with `digits` decimals. */
+/**
+ * "164.849 787 MHz"-style: Hz scaled to Hz/kHz/MHz with `digits` decimals (MHz carry three more),
+ * the digits grouped in threes either side of the decimal point with a space (groupDigits).
+ * Frequencies of 1 MHz and above, absolute ones above all, are always in MHz.
+ */
 export function formatHz(hz: number, digits = 3): string {
   const a = Math.abs(hz);
-  if (a >= 1e9) return `${(hz / 1e9).toFixed(digits + 3)} GHz`;
-  if (a >= 1e6) return `${(hz / 1e6).toFixed(digits + 3)} MHz`;
-  if (a >= 1e3) return `${(hz / 1e3).toFixed(digits)} kHz`;
-  return `${hz.toFixed(Math.max(digits - 2, 1))} Hz`;
+  if (a >= 1e6) return `${groupDigits((hz / 1e6).toFixed(digits + 3))} MHz`;
+  if (a >= 1e3) return `${groupDigits((hz / 1e3).toFixed(digits))} kHz`;
+  return `${groupDigits(hz.toFixed(Math.max(digits - 2, 1)))} Hz`;
+}
+
+/**
+ * A decimal numeral with its digits in groups of three counted from the decimal point, joined by
+ * a space (SI Brochure, 9th edition, §5.4.4: groups of three, separated by a space, never by a
+ * point or comma). A group of four digits is left whole before the point ("1234.5"), as the
+ * brochure allows; "-164.849787" → "-164.849 787".
+ */
+export function groupDigits(numeral: string): string {
+  const m = /^(-?)(\d+)(?:\.(\d+))?$/.exec(numeral);
+  if (m === null) return numeral;
+  const [, sign, whole, fraction] = m as unknown as [string, string, string, string | undefined];
+  const w = whole.length <= 4 ? whole : whole.replace(/\B(?=(\d{3})+$)/g, " ");
+  const f = fraction === undefined ? "" : `.${fraction.length <= 4 ? fraction : (fraction.match(/\d{1,3}/g) as string[]).join(" ")}`;
+  return `${sign}${w}${f}`;
 }
 
 /** A rate in samples per second: "2.4 MS/s". */

@@ -3,7 +3,7 @@
  * x-dB line and the carrier marked; the instantaneous frequency (FM) or the envelope (AM) over
  * time with the peak lines. Numbers in, PNG bytes out; the caller writes them.
  */
-import { binFrequencyHz, powerToDb, type WelchPsd } from "../dsp/index.js";
+import { binFrequencyHz, type WelchPsd } from "../dsp/index.js";
 import { renderConstellation, renderHistogram, renderLineFigure, SERIES_COLOURS, type MarkerLine, type Rgb } from "../render/index.js";
 import { formatHz } from "./format.js";
 
@@ -26,23 +26,46 @@ export interface SpectrumFigureInput {
   readonly upperEdgeHz: number | null;
   readonly carrierOffsetHz: number | null;
   readonly xDb: number;
+  /** Whether the x-dB level is read from the mean PSD or its max-hold (drawn as a second trace). */
+  readonly xDbReference?: "average" | "peak-hold";
   readonly xDbLevelDbfsPerHz: number | null;
   readonly noiseFloorDbfsPerHz: number;
   readonly widthPx?: number;
   readonly heightPx?: number;
 }
 
+/**
+ * A PSD in dB for a trace, every value at least `clampDb`: a bin of zero power (no log), a NaN,
+ * or one far under the floor is drawn at clampDb, below the axis minimum, so that the line runs
+ * off the bottom of the plot and back instead of breaking (a NaN breaks a polyline).
+ */
+export function traceDb(densityPerHz: ArrayLike<number>, clampDb: number): Float64Array {
+  const out = new Float64Array(densityPerHz.length);
+  for (let i = 0; i < out.length; i++) {
+    const p = densityPerHz[i] as number;
+    const db = p > 0 && Number.isFinite(p) ? 10 * Math.log10(p) : -Infinity;
+    out[i] = Math.max(db, clampDb);
+  }
+  return out;
+}
+
 export function spectrumFigure(input: SpectrumFigureInput): Buffer {
   const { psd } = input;
   const base = input.centerHz ?? 0;
+  const axisMinDb = input.noiseFloorDbfsPerHz - 20;
+  // 10 dB under the axis: far enough that the clipped line reads as "below the plot".
+  const mean = traceDb(psd.densityPerHz, axisMinDb - 10);
+  const hold = traceDb(psd.maxHoldPerHz, axisMinDb - 10);
   // The channel only: beyond it the PSD shows the extraction filter's skirts, not the emission.
   const xs: number[] = [];
   const ys: number[] = [];
+  const hs: number[] = [];
   for (let i = 0; i < psd.fftLength; i++) {
     const f = binFrequencyHz(psd, i);
     if (Math.abs(f) > input.channelWidthHz / 2) continue;
     xs.push(base + input.channelOffsetHz + f);
-    ys.push(powerToDb(psd.densityPerHz[i] as number));
+    ys.push(mean[i] as number);
+    hs.push(hold[i] as number);
   }
   const x = Float64Array.from(xs);
   const y = Float64Array.from(ys);
@@ -53,7 +76,7 @@ export function spectrumFigure(input: SpectrumFigureInput): Buffer {
     markers.push({ orientation: "vertical", value: base + input.carrierOffsetHz, label: "carrier", colour: CARRIER_COLOUR });
   }
   if (input.xDbLevelDbfsPerHz !== null) {
-    markers.push({ orientation: "horizontal", value: input.xDbLevelDbfsPerHz, label: `${input.xDb} dB below peak`, colour: X_DB_COLOUR });
+    markers.push({ orientation: "horizontal", value: input.xDbLevelDbfsPerHz, label: `${input.xDb} dB below ${input.xDbReference === "peak-hold" ? "max-hold peak" : "peak"}`, colour: X_DB_COLOUR });
   }
   markers.push({ orientation: "horizontal", value: input.noiseFloorDbfsPerHz, label: "noise floor", colour: NOISE_FLOOR_COLOUR });
   const png = renderLineFigure({
@@ -61,8 +84,11 @@ export function spectrumFigure(input: SpectrumFigureInput): Buffer {
     subtitle: `Welch ${psd.fftLength}-point ${psd.window}, ${psd.segmentCount} segments, RBW ${formatHz(psd.enbwHz)}, ` +
       `${input.centerHz === null ? "offset from the capture centre" : "absolute RF"}`,
     x: { name: input.centerHz === null ? "Frequency offset" : "Frequency", quantity: { kind: "hertz" } },
-    y: { name: "PSD", quantity: { kind: "linear", unit: "dBFS/Hz" }, min: input.noiseFloorDbfsPerHz - 20 },
-    series: [{ label: "PSD (Welch mean)", xValues: x, yValues: y }],
+    y: { name: "PSD", quantity: { kind: "linear", unit: "dBFS/Hz" }, min: axisMinDb },
+    series: [
+      { label: "PSD (Welch mean)", xValues: x, yValues: y },
+      ...(input.xDbReference === "peak-hold" ? [{ label: "max-hold (x-dB reference)", xValues: x, yValues: Float64Array.from(hs) }] : []),
+    ],
     markers,
     widthPx: input.widthPx ?? 1200,
     heightPx: input.heightPx ?? 700,

@@ -6,7 +6,7 @@
  */
 import { basename } from "node:path";
 import type { MeasureReport } from "./measureReport.js";
-import { formatHz, formatRate, formatSeconds, formatUncertainty, uncertaintyDecimals } from "./format.js";
+import { formatHz, formatRate, formatSeconds, formatUncertainty, groupDigits, uncertaintyDecimals } from "./format.js";
 import { REFERENCE_NOT_INCLUDED } from "../measure/index.js";
 import { displayClass } from "./className.js";
 
@@ -23,7 +23,10 @@ function cell(r: MeasureReport, row: Row): [string, string, string] | null {
   const u = r.uncertainty[row.path];
   // The value to the same decimal place as its uncertainty (GUM §7.2.6).
   const digits = u === undefined ? row.digits : uncertaintyDecimals(u, row.digits);
-  const value = `${row.value.toFixed(digits)} ${row.unit}`.trim();
+  // An absolute frequency in MHz, grouped in threes (formatHz), to the same decimal place in Hz.
+  const value = row.unit === "Hz" && Math.abs(row.value) >= 1e6
+    ? `${groupDigits((row.value / 1e6).toFixed(digits + 6))} MHz`
+    : `${row.value.toFixed(digits)} ${row.unit}`.trim();
   const unc = u === undefined ? "" : formatUncertainty(u, row.digits, row.unit);
   return [row.label, value, unc];
 }
@@ -37,7 +40,7 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
     { label: "Occupied bandwidth (99 %)", path: "bandwidth.occupiedHz", value: r.bandwidth.occupiedHz, unit: "Hz", digits: 0 },
     { label: "OBW lower edge (offset)", path: "bandwidth.lowerEdgeHz", value: r.bandwidth.lowerEdgeHz, unit: "Hz", digits: 0 },
     { label: "OBW upper edge (offset)", path: "bandwidth.upperEdgeHz", value: r.bandwidth.upperEdgeHz, unit: "Hz", digits: 0 },
-    { label: `${r.bandwidth.xDb} dB bandwidth`, path: "bandwidth.xDbHz", value: r.bandwidth.xDbHz, unit: "Hz", digits: 0 },
+    { label: `${r.bandwidth.xDb} dB bandwidth (${r.bandwidth.xDbReference === "peak-hold" ? "re max-hold maximum" : "re mean PSD maximum"})`, path: "bandwidth.xDbHz", value: r.bandwidth.xDbHz, unit: "Hz", digits: 0 },
     { label: "Channel power", path: "power.channelDbfs", value: r.power.channelDbfs, unit: "dBFS", digits: 2 },
     { label: "SNR (in channel)", path: "power.snrDb", value: r.power.snrDb, unit: "dB", digits: 1 },
   ];
@@ -90,7 +93,7 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
     .map((row) => cell(r, row))
     .filter((x): x is [string, string, string] => x !== null)
     .map(([a, b, u]) => `| ${a} | ${b} | ${u} |`);
-  const methods = Object.entries(r.methods).map(([k, v]) => `- \`${k}\`: ${v}`);
+  const methods = methodLines(r);
   const q = r.quality;
   const lines = [
     `# Emission measurement: ${basename(c.path)}`,
@@ -119,6 +122,7 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
     `| --- | --- | --- |`,
     ...table,
     "",
+    ...xDbNote(r),
     ...referenceNote(r),
     `## Capture health`,
     "",
@@ -144,6 +148,38 @@ export function measureMarkdown(r: MeasureReport, figures: readonly string[]): s
     "",
   ];
   return lines.join("\n");
+}
+
+/**
+ * The methods, each line once with every figure it serves (an OBW and its edges share one), and
+ * only for figures the report holds: a method of a figure that is null (an EVM under an OOK
+ * result) is left out; why it is null is under "Figures not given".
+ */
+export function methodLines(r: MeasureReport): string[] {
+  const paths = new Map<string, string[]>();
+  for (const [path, method] of Object.entries(r.methods)) {
+    if (valueAt(r, path) == null) continue;
+    const group = paths.get(method);
+    if (group === undefined) paths.set(method, [path]);
+    else group.push(path);
+  }
+  return [...paths].map(([method, group]) => `- ${group.map((p) => `\`${p}\``).join(", ")}: ${method}`);
+}
+
+/** The report's value at a dotted path ("fsk.toneFrequenciesHz.0"), undefined where there is none. */
+function valueAt(r: MeasureReport, path: string): unknown {
+  let v: unknown = r;
+  for (const key of path.split(".")) v = v !== null && typeof v === "object" ? (v as Record<string, unknown>)[key] : undefined;
+  return v;
+}
+
+/** What the x-dB bandwidth is measured against (ITU-R SM.443 Annex 2: x dB below the maximum of the spectrum). */
+function xDbNote(r: MeasureReport): string[] {
+  if (r.bandwidth.xDbHz === null) return [];
+  const trace = r.bandwidth.xDbReference === "peak-hold"
+    ? "the maximum of the max-hold spectrum (the highest level each frequency reached over the span), with the edges on the max-hold trace"
+    : "the maximum of the mean (Welch) PSD, with the edges on the mean PSD; for FM this is the carrier line, and the figure reads narrower than a max-hold one";
+  return [`The ${r.bandwidth.xDb} dB bandwidth is measured ${r.bandwidth.xDb} dB below ${trace} (ITU-R SM.443 Annex 2: x dB below the maximum of the spectrum).`, ""];
 }
 
 /** One line on whether the carrier's uncertainty holds the receiver's frequency reference. */

@@ -24,6 +24,8 @@ export interface MeasureReport {
   readonly bandwidth: {
     readonly occupiedHz: N; readonly lowerEdgeHz: N; readonly upperEdgeHz: N;
     readonly xDbHz: N; readonly xDb: number; readonly xDbLowerEdgeHz: N; readonly xDbUpperEdgeHz: N;
+    /** The x-dB bandwidth's 0 dB reference and the trace of its edges: "average" (mean PSD) or "peak-hold" (max-hold). */
+    readonly xDbReference: "average" | "peak-hold";
     readonly resolutionHz: number;
   };
   readonly power: { readonly channelDbfs: N; readonly snrDb: N };
@@ -64,7 +66,7 @@ class Ledger {
   /** Each warning once, with every figure path that gave it (an OBW and its two edges share one). */
   private readonly warningPaths = new Map<string, string[]>();
   get warnings(): string[] {
-    return [...this.warningPaths].map(([w, paths]) => `${paths.join(", ")}: ${w}`);
+    return [...this.warningPaths].map(([w, paths]) => `${[...new Set(paths.map(figureOf))].join(", ")}: ${w}`);
   }
   take(path: string, m: Measurement): N {
     if (m.value !== null && m.uncertainty !== null) this.uncertainty[path] = m.uncertainty;
@@ -81,6 +83,17 @@ class Ledger {
     return m.value;
   }
 }
+
+/** The figure an edge belongs to (a bandwidth's note is said once, of the bandwidth, not of each edge). */
+function figureOf(path: string): string {
+  return EDGE_FIGURES[path] ?? path;
+}
+const EDGE_FIGURES: Readonly<Record<string, string>> = {
+  "bandwidth.lowerEdgeHz": "bandwidth.occupiedHz",
+  "bandwidth.upperEdgeHz": "bandwidth.occupiedHz",
+  "bandwidth.xDbLowerEdgeHz": "bandwidth.xDbHz",
+  "bandwidth.xDbUpperEdgeHz": "bandwidth.xDbHz",
+};
 
 export function buildMeasureReport(
   meta: CaptureMeta,
@@ -112,6 +125,7 @@ export function buildMeasureReport(
       upperEdgeHz: l.take("bandwidth.upperEdgeHz", f.bandwidth.upperEdgeHz),
       xDbHz: l.take("bandwidth.xDbHz", f.bandwidth.xDbHz),
       xDb: f.bandwidth.xDb,
+      xDbReference: f.bandwidth.xDbReference,
       xDbLowerEdgeHz: l.take("bandwidth.xDbLowerEdgeHz", f.bandwidth.xDbLowerEdgeHz),
       xDbUpperEdgeHz: l.take("bandwidth.xDbUpperEdgeHz", f.bandwidth.xDbUpperEdgeHz),
       resolutionHz: f.bandwidth.resolutionHz,
@@ -194,7 +208,7 @@ export function buildMeasureReport(
       ...(f.digital?.rollOffMethod == null ? {} : { "digital.rollOff": f.digital.rollOffMethod }),
     },
     unavailable: l.unavailable,
-    warnings: [...warnings, ...f.warnings.filter((w) => !warnings.includes(w)), ...l.warnings.filter((w) => !warnings.includes(w) && !f.warnings.includes(w))],
+    warnings: [...new Set([...warnings, ...f.warnings, ...l.warnings])],
   };
   return report;
 }

@@ -17,11 +17,14 @@ export function measureText(r: MeasureReport, files: readonly string[]): string 
   const rows: [string, string][] = [
     ["class", `${displayClass(r.modulation.class, r.modulation.order)}${r.modulation.forced ? " (given)" : `, confidence ${(r.modulation.confidence * 100).toFixed(0)} %`}`],
     ["designator", r.emission.designator ?? "n/a"],
+    ["channel", `${formatHz(r.channel.offsetHz)} offset, ${formatHz(r.channel.widthHz)} wide (${r.channel.givenByUser ? "given" : "found"})`],
+    ["nominal frequency", r.carrier.nominalHz === null ? "not given (--nominal)" : formatHz(r.carrier.nominalHz)],
+    ["necessary bandwidth", withU(r, "emission.necessaryBandwidthHz", r.emission.necessaryBandwidthHz, hz)],
     ["carrier offset", withU(r, "carrier.offsetHz", r.carrier.offsetHz, hz)],
     ...(r.carrier.frequencyHz === null ? [] : ([["carrier frequency", withU(r, "carrier.frequencyHz", r.carrier.frequencyHz, hz)]] as [string, string][])),
     ...(r.carrier.errorPpm === null ? [] : ([["frequency error", withU(r, "carrier.errorPpm", r.carrier.errorPpm, (x) => `${x.toFixed(3)} ppm`, "ppm", 3)]] as [string, string][])),
     ["occupied bandwidth", withU(r, "bandwidth.occupiedHz", r.bandwidth.occupiedHz, hz)],
-    [`${r.bandwidth.xDb} dB bandwidth`, withU(r, "bandwidth.xDbHz", r.bandwidth.xDbHz, hz)],
+    [`${r.bandwidth.xDb} dB bandwidth (${r.bandwidth.xDbReference})`, withU(r, "bandwidth.xDbHz", r.bandwidth.xDbHz, hz)],
     ["channel power", withU(r, "power.channelDbfs", r.power.channelDbfs, (x) => `${x.toFixed(2)} dBFS`, "dBFS", 2)],
     ["SNR", withU(r, "power.snrDb", r.power.snrDb, (x) => `${x.toFixed(1)} dB`, "dB", 1)],
   ];

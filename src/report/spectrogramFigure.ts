@@ -15,6 +15,16 @@ export interface SpectrogramFigureOptions {
   readonly reduce: "mean" | "max";
   /** Regions boxed over the plot (a survey's emissions and artefacts), times from the span's start. */
   readonly regions?: readonly SpectrogramRegion[] | undefined;
+  /** Only the bins whose centres lie in this band (offsets from the capture centre, Hz): a measured channel. Default the whole span. */
+  readonly frequencyWindowHz?: { readonly lowerHz: number; readonly upperHz: number } | undefined;
+}
+
+/** The bins of the band [lowerHz, upperHz] (bin k centred at −fs/2 + k·Δf), at least two. */
+function binWindow(bins: number, fs: number, df: number, band: SpectrogramFigureOptions["frequencyWindowHz"]): { first: number; count: number } {
+  if (band === undefined) return { first: 0, count: bins };
+  const lo = Math.max(0, Math.min(bins - 2, Math.ceil((band.lowerHz + fs / 2) / df)));
+  const hi = Math.min(bins - 1, Math.max(lo + 1, Math.floor((band.upperHz + fs / 2) / df)));
+  return { first: lo, count: hi - lo + 1 };
 }
 
 export function spectrogramFigure(
@@ -23,10 +33,13 @@ export function spectrogramFigure(
 ): { png: Buffer; dbRange: { minDb: number; maxDb: number }; plot: FigureLayout["plot"]; frequencySpanHz: readonly [number, number] } {
   const s = a.pass1.spectrogram;
   const source = options.reduce === "max" ? s.maxPerHz : s.meanPerHz;
-  const valuesDb = new Float32Array(source.length);
-  for (let k = 0; k < source.length; k++) valuesDb[k] = powerToDb(source[k] as number);
-  const dbRange = options.dbRange ?? autoDbRange(valuesDb, a.pass1.noiseFloor.dbfsPerHz);
   const fs = a.meta.sampleRateHz;
+  const { first, count } = binWindow(s.fftLength, fs, s.binWidthHz, options.frequencyWindowHz);
+  const valuesDb = new Float32Array(s.rowCount * count);
+  for (let r = 0; r < s.rowCount; r++) {
+    for (let k = 0; k < count; k++) valuesDb[r * count + k] = powerToDb(source[r * s.fftLength + first + k] as number);
+  }
+  const dbRange = options.dbRange ?? autoDbRange(valuesDb, a.pass1.noiseFloor.dbfsPerHz);
   const t0 = a.span.startSample / fs;
   let fewest = Number.POSITIVE_INFINITY;
   let most = 0;
@@ -43,11 +56,11 @@ export function spectrogramFigure(
     `RBW ${formatHz(rbw)}`,
     `${s.rowCount} rows, each the ${options.reduce} of ${perRow}`,
   ].join(" · ");
-  const frequencyStartHz = -fs / 2 - s.binWidthHz / 2;
-  const frequencyStopHz = fs / 2 - s.binWidthHz / 2;
+  const frequencyStartHz = -fs / 2 + (first - 0.5) * s.binWidthHz;
+  const frequencyStopHz = -fs / 2 + (first + count - 0.5) * s.binWidthHz;
   const figure = renderSpectrogram({
     rows: s.rowCount,
-    bins: s.fftLength,
+    bins: count,
     valuesDb,
     frequencyStartHz,
     frequencyStopHz,

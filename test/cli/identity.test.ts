@@ -82,7 +82,8 @@ describe("inspect of a SigMF recording", () => {
     expect(r.status, r.stderr).toBe(0);
     expect(r.stdout).toContain(`description: ${String(file.global["core:description"])}`);
     for (const a of file.annotations) {
-      const mhz = (hz: number): string => `${(hz / 1e6).toFixed(6)} MHz`;
+      // MHz to the hertz, digits grouped in threes after the point (SI Brochure §5.4.4, as formatHz prints).
+      const mhz = (hz: number): string => `${(hz / 1e6).toFixed(6).replace(/\.(\d{3})(\d{3})$/, ".$1 $2")} MHz`;
       const endS = ((a["core:sample_start"] as number) + (a["core:sample_count"] as number)) / rate;
       expect(r.stdout).toContain(`${String(a["core:label"])}: ${mhz(a["core:freq_lower_edge"] as number)} – ${mhz(a["core:freq_upper_edge"] as number)}, 0 s – ${endS.toFixed(3)} s`);
     }

@@ -8,6 +8,8 @@ import { PNG } from "pngjs";
 import { describe, expect, it } from "vitest";
 import { encodeSamples } from "../../src/capture/index.js";
 import { measureCommand } from "../../src/commands/measure.js";
+import { measureText } from "../../src/report/measureText.js";
+import { measureMarkdown } from "../../src/report/measureMarkdown.js";
 import { SeededRandom, amFromAudio, burstGate, complexNoise, fmFromAudio, frequencyShift, nrzLevels, randomSymbols, rrcPsk, toneAudio } from "../../src/scenario/index.js";
 import { runCli } from "../helpers/runCli.js";
 
@@ -58,6 +60,9 @@ describe("measureCommand(path, options)", () => {
     }
     expect(r.fm).not.toBeNull();
     expect(r.am).toBeNull();
+    // The x-dB bandwidth's reference by default: the max-hold maximum (docs/cli.md, `--xdb-reference`).
+    expect(report.bandwidth.xDbReference).toBe("peak-hold");
+    expect(report.methods["bandwidth.xDbHz"]).toMatch(/max-hold/);
     expect(typeof report.uncertainty).toBe("object");
   });
 
@@ -79,6 +84,17 @@ describe("measureCommand(path, options)", () => {
     expect(Math.abs((report.bandwidth.occupiedHz as number) - 12_000)).toBeLessThan(1000);
     // F3E: frequency modulation, analogue, telephony (RR Appendix 1 §4); 4-character bandwidth code.
     expect(report.emission.designator).toMatch(/^[1-9][0-9HKMG]{3}F3E$/);
+    // The text summary names the channel used, the nominal frequency and the necessary
+    // bandwidth, absolute frequencies in MHz grouped in threes (SI Brochure 9th ed. §5.4.4).
+    const text = measureText(report, []);
+    // The channel found is the located region (centred within a few pass-1 bins of +40 kHz).
+    expect(text).toMatch(/channel\s+(39|40)\.\d{3} kHz offset, \d+\.\d{3} kHz wide \(found\)/);
+    expect(text).toMatch(/nominal frequency\s+156\.840 000 MHz/);
+    expect(text).toMatch(/carrier frequency\s+156\.840 0\d\d MHz/);
+    // Necessary bandwidth of tone FM, 47 CFR 2.202(g): 2M + 2D = 2·1000 + 2·5000 = 12 kHz.
+    expect(text).toMatch(/necessary bandwidth\s+1[12]\.\d{3} kHz/);
+    // report.md too: the carrier frequency in MHz, grouped, to the decimal place of its uncertainty.
+    expect(measureMarkdown(report, [])).toMatch(/\| Carrier frequency \| 156\.8(39 9|40 0)[\d ]* MHz \| ± [\d.]+ Hz \|/);
   });
 
   it("writes a complete report folder: report.json last, report.md, PNGs that decode (pngjs)", async () => {

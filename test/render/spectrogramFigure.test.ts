@@ -1,6 +1,6 @@
 import { PNG } from "pngjs";
 import { describe, expect, it } from "vitest";
-import { autoDbRange, rampColour, renderSpectrogram, srgb8ToOklab, type SpectrogramFigureInput } from "../../src/render/index.js";
+import { autoDbRange, rampColour, renderSpectrogram, spectrogramPlotRows, srgb8ToOklab, type SpectrogramFigureInput } from "../../src/render/index.js";
 
 /** A flat −100 dB spectrogram with optional strong cells. */
 function input(rows: number, bins: number, overrides: Partial<SpectrogramFigureInput> = {}): SpectrogramFigureInput {
@@ -189,5 +189,14 @@ describe("renderSpectrogram regions (a survey's boxes)", () => {
       }
     }
     expect(whites).toBe(0);
+  });
+});
+
+describe("spectrogramPlotRows(widthPx, heightPx)", () => {
+  it("is the plot height renderSpectrogram lays out for a one-line title and subtitle (one row per pixel row)", () => {
+    for (const [w, h] of [[1200, 800], [800, 480], [480, 320]] as const) {
+      const figure = renderSpectrogram(input(10, 10, { widthPx: w, heightPx: h }));
+      expect(spectrogramPlotRows(w, h)).toBe(figure.layout.plot.height);
+    }
   });
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { formatHzUncertainty, formatUncertainty, uncertaintyDecimals, uncertaintyUnit } from "../../src/report/format.js";
+import { formatHz, formatHzUncertainty, formatUncertainty, groupDigits, uncertaintyDecimals, uncertaintyUnit } from "../../src/report/format.js";
 
 describe("uncertainty printing", () => {
   it("never rounds a non-zero uncertainty to zero (GUM §7.2.6: one or two significant digits)", () => {
@@ -25,5 +25,24 @@ describe("uncertainty printing", () => {
     expect(uncertaintyUnit("dBc")).toBe("dB");
     expect(formatUncertainty(0.12, 2, "dBc")).toBe("± 0.12 dB");
     expect(formatHzUncertainty(0.00021)).toBe("0.00021 Hz");
+  });
+});
+
+describe("formatHz(hz) and groupDigits(numeral)", () => {
+  // SI Brochure, 9th edition (2019), §5.4.4: digits may be divided into groups of three by a
+  // space on either side of the decimal marker; four digits may stand ungrouped.
+  it("groups the digits in threes either side of the decimal point", () => {
+    expect(groupDigits("164.849787")).toBe("164.849 787");
+    expect(groupDigits("-2400.000000000")).toBe("-2400.000 000 000");
+    expect(groupDigits("12345678.5")).toBe("12 345 678.5");
+    expect(groupDigits("0.1234")).toBe("0.1234");
+  });
+  it("gives absolute frequencies in MHz with six decimals, grouped", () => {
+    expect(formatHz(164_849_787)).toBe("164.849 787 MHz");
+    expect(formatHz(165.1375e6)).toBe("165.137 500 MHz");
+    // 2.4 GHz stays in MHz, as every absolute frequency does.
+    expect(formatHz(2.4e9)).toBe("2400.000 000 MHz");
+    expect(formatHz(12_500)).toBe("12.500 kHz");
+    expect(formatHz(-463.94)).toBe("-463.9 Hz");
   });
 });
