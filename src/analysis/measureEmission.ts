@@ -37,7 +37,7 @@ import {
   type XDbReference,
 } from "../measure/index.js";
 import type { Pass1Result } from "./pass1.js";
-import { runPass2, type Pass2Result, type Pass2WholeSpan } from "./pass2.js";
+import { runPass2, type Pass2Result } from "./pass2.js";
 import type { WholeSpanFigures } from "./wholeSpan.js";
 import { correctedOffsetHz, reportedOffsetOfHz } from "./clockCorrection.js";
 import { locateNearNominal } from "./nearNominal.js";
@@ -78,12 +78,6 @@ export interface MeasureEmissionOptions {
    * `channel` should name the same (it bounds where the emission is located in the pass-1 PSD).
    */
   readonly extractedChannel?: Pass2Result | undefined;
-  /**
-   * Settings of the whole-span stage that runs beside pass 2 (wholeSpan.ts), e.g. the mask's
-   * resolution bandwidth for a licence check. The stage always runs when measureEmission reads
-   * the channel itself; not with `extractedChannel`.
-   */
-  readonly wholeSpan?: Omit<Pass2WholeSpan, "audioBandwidthHz"> | undefined;
   /** Every input block of the span, for a stage that reads it beside pass 2 (Pass2Options.onInputBlock). */
   readonly onInputBlock?: ((block: Float32Array) => void) | undefined;
   readonly onProgress?: ((doneSamples: number, totalSamples: number) => void) | undefined;
@@ -135,7 +129,8 @@ export async function measureEmission(
   const pass2 = options.extractedChannel
     ?? await runPass2(source, span, {
       offsetHz, bandwidthHz: widthHz, maxSamples: options.maxChannelSamples, onProgress: options.onProgress,
-      wholeSpan: { ...options.wholeSpan, audioBandwidthHz }, onInputBlock: options.onInputBlock,
+      // The whole-span stage runs whenever measureEmission reads the channel itself; measure needs no spectra from it.
+      wholeSpan: { audioBandwidthHz, hold: false }, onInputBlock: options.onInputBlock,
     });
   warnings.push(...pass2.warnings);
   const fsc = pass2.sampleRateHz;

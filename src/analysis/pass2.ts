@@ -16,7 +16,7 @@ import { ChannelExtractor } from "../dsp/index.js";
 import { WholeSpanAccumulator, type WholeSpanFigures, type WholeSpanOptions } from "./wholeSpan.js";
 
 /** What the whole-span stage is asked for beside pass 2 (its channel is pass 2's). */
-export type Pass2WholeSpan = Pick<WholeSpanOptions, "audioBandwidthHz" | "maskResolutionHz" | "welchResolutionHz" | "carrierOffsetHz" | "referenceBandHz">;
+export type Pass2WholeSpan = Pick<WholeSpanOptions, "audioBandwidthHz" | "maskResolutionHz" | "welchResolutionHz" | "carrierOffsetHz" | "referenceBandHz" | "hold">;
 
 export interface Pass2Options {
   /** Centre of the channel, Hz from the capture centre. */
@@ -70,7 +70,7 @@ export async function runPass2(source: CaptureSource, span: SampleSpan, options:
   const keep = Math.min(expected, maxSamples);
   const whole = options.wholeSpan === undefined ? null : new WholeSpanAccumulator(extractor, span.sampleCount, {
     ...options.wholeSpan,
-    // Without a mask's RBW, 300 Hz (the check's default) or what a 32 768-sample frame allows at the channel rate.
+    // Without a mask's RBW, 300 Hz or what a 32 768-sample frame allows at the channel rate (used only with `hold`).
     maskResolutionHz: options.wholeSpan.maskResolutionHz ?? Math.max(300, (1.5 * fsOut) / 32_768),
     offsetHz: options.offsetHz,
     bandwidthHz: options.bandwidthHz,

@@ -61,6 +61,10 @@ export interface WholeSpanOptions {
   readonly audioBandwidthHz?: number | undefined;
   /** Resolution bandwidth (ENBW) of the max-hold and average spectra, Hz (default 300). */
   readonly maskResolutionHz?: number | undefined;
+  /** Keep the max-hold and average spectra (default true); `measure` needs none, and leaving them out saves their transforms over the whole span. */
+  readonly hold?: boolean | undefined;
+  /** Run the discriminator and the audio filter for the peak deviation (default true); a check's wide channel needs only its spectra. */
+  readonly deviation?: boolean | undefined;
   /** Width of the band, centred on the channel, whose highest per-frame power is kept (`hold.bandPeakDbfs`: a mask's "peak" reference), Hz. */
   readonly referenceBandHz?: number | undefined;
   /** Upper bound on the Welch PSD's resolution bandwidth (ENBW), Hz; default bins of at most bandwidthHz/400 (as `measure`). */
@@ -130,7 +134,8 @@ export interface WholeSpanFigures {
   readonly audioBandwidthHz: number;
   /** Channel PSD, frequencies from the channel centre, FS²/Hz. */
   readonly psd: WelchPsd;
-  readonly hold: HoldSpectra;
+  /** Null when the options left the spectra out (`hold: false`). */
+  readonly hold: HoldSpectra | null;
   /** The lengths of every array the accumulators held (WholeSpanAccumulator.stateLengths): fixed, whatever the span. */
   readonly stateLengths: readonly number[];
   readonly warnings: readonly string[];
@@ -213,7 +218,8 @@ export class WholeSpanAccumulator {
   private readonly discriminator: StreamingDiscriminator;
   private readonly fir: StreamingFirPair;
   private readonly welch: WelchAccumulator;
-  private readonly hold: SpectrumHoldAccumulator;
+  private readonly hold: SpectrumHoldAccumulator | null;
+  private readonly deviationOn: boolean;
   private readonly carry: Float32Array;
   /** The carried tail and the block, one array reused (grown to the largest block). */
   private joined = new Float32Array(0);
@@ -259,15 +265,16 @@ export class WholeSpanAccumulator {
     if (holdLength > 65_536) throw new RangeError(`maskResolutionHz ${rbw} Hz needs frames of ${holdLength} samples at ${fsc} S/s (at most 65 536)`);
     const band = options.referenceBandHz;
     if (band !== undefined && !(band > 0 && Number.isFinite(band))) throw new RangeError(`referenceBandHz ${band} is not a positive finite width`);
-    this.hold = new SpectrumHoldAccumulator({ frameLength: holdLength, sampleRateHz: fsc, ...(band === undefined ? {} : { bandHz: band }) });
-    const prefix = Math.max(this.welch.snapshot().fftLength, holdLength) - 1;
+    this.hold = options.hold === false ? null : new SpectrumHoldAccumulator({ frameLength: holdLength, sampleRateHz: fsc, ...(band === undefined ? {} : { bandHz: band }) });
+    this.deviationOn = options.deviation !== false;
+    const prefix = Math.max(this.welch.snapshot().fftLength, this.hold === null ? 0 : holdLength) - 1;
     this.carry = new Float32Array(2 * prefix);
   }
 
   /** The lengths of every array the accumulator holds: they do not depend on the span's length. */
   stateLengths(): number[] {
     const w = this.welch.snapshot();
-    return [this.carry.length, w.powerSum.length, w.powerMax.length, ...this.hold.stateLengths(), this.fir.fftSize, this.fir.tapCount];
+    return [this.carry.length, w.powerSum.length, w.powerMax.length, ...(this.hold?.stateLengths() ?? []), this.fir.fftSize, this.fir.tapCount];
   }
 
   /** The next block of the extractor's output (interleaved I,Q, channel centre at 0 Hz). */
@@ -282,9 +289,11 @@ export class WholeSpanAccumulator {
     const x = from === 0 ? y : y.subarray(2 * from);
     this.carrierAndPower(x);
     this.spectra(x);
-    const f = this.discriminator.push(x);
-    this.rawExtremes(f);
-    this.fir.push(f, this.sink);
+    if (this.deviationOn) {
+      const f = this.discriminator.push(x);
+      this.rawExtremes(f);
+      this.fir.push(f, this.sink);
+    }
     this.kept += x.length >> 1;
   }
 
@@ -320,7 +329,7 @@ export class WholeSpanAccumulator {
     const start = this.kept - t;
     const joined = t === 0 ? x : this.join(t, x);
     this.welch.push(joined, start, this.kept);
-    this.hold.push(joined, start, this.kept);
+    this.hold?.push(joined, start, this.kept);
     const total = t + n;
     const keep = Math.min(this.carry.length >> 1, total);
     this.carry.set(joined.subarray(2 * (total - keep), 2 * total));
@@ -383,7 +392,7 @@ export class WholeSpanAccumulator {
       ...devs,
       audioBandwidthHz: this.audioHz,
       psd,
-      hold: this.holdSpectra(),
+      hold: this.hold === null ? null : this.holdSpectra(this.hold),
       stateLengths: this.stateLengths(),
       warnings: this.warnings,
     };
@@ -428,8 +437,8 @@ export class WholeSpanAccumulator {
     return frame < 0 ? NaN : (frame * h.hopLength + h.frameLength / 2 + this.skip) / this.fsc - this.delayS;
   }
 
-  private holdSpectra(): HoldSpectra {
-    const h = this.hold.finish();
+  private holdSpectra(hold: SpectrumHoldAccumulator): HoldSpectra {
+    const h = hold.finish();
     const n = h.fftLength;
     const frequencyHz = new Float64Array(n);
     const maxHoldDbfs = new Float64Array(n);

@@ -10,7 +10,7 @@
 import { basename } from "node:path";
 import type { CaptureMeta, SampleSpan } from "../capture/index.js";
 import { LicenceFileError, ParameterError, UsageError } from "../errors.js";
-import { WholeSpanAccumulator, type Pass1Options, type WholeSpanFigures } from "../analysis/index.js";
+import { WholeSpanAccumulator, type HoldSpectra, type Pass1Options, type WholeSpanFigures } from "../analysis/index.js";
 import { ChannelExtractor } from "../dsp/index.js";
 import { checkMeasureOptions, measureEmission } from "../analysis/measureEmission.js";
 import type { EmissionFigures } from "../analysis/emissionFigures.js";
@@ -162,6 +162,8 @@ function wideChannel(a: AnalysedCapture, placement: Placement, licence: Licence)
   const acc = new WholeSpanAccumulator(extractor, a.span.sampleCount, {
     offsetHz: placement.offsetHz, bandwidthHz: placement.widthHz,
     maskResolutionHz: licence.maskResolutionHz ?? 300, referenceBandHz: placement.referenceBandHz,
+    // The emission's deviation is measured in its own channel; this one is read for its spectra only.
+    deviation: false,
   });
   let pushed = 0;
   return {
@@ -266,7 +268,7 @@ function checkInputs(a: AnalysedCapture, f: EmissionFigures, wide: WholeSpanFigu
     designator: f.emission.designator,
     classConfidence: f.modulation.confidence,
     classMethod: f.modulation.method,
-    maskSpectrum: wide === null ? null : maskSpectrum(a, f, wide, licence, placement),
+    maskSpectrum: wide?.hold == null ? null : maskSpectrum(a, f, wide, wide.hold, licence, placement),
     adjacent: wide === null ? null : { psd: wide.psd, centreHz: placement.originInChannelHz, noiseDensityPerHz: a.pass1.noiseFloor.densityPerHz },
   };
 }
@@ -278,12 +280,11 @@ function checkInputs(a: AnalysedCapture, f: EmissionFigures, wide: WholeSpanFigu
  * point (k = 2, dB): the reference's, plus the Hann scallop loss at half the bin spacing (a line
  * between two bins reads low by up to it; REFERENCES.md §8, 1.42 dB at half an L-point bin), added.
  */
-function maskSpectrum(a: AnalysedCapture, f: EmissionFigures, ws: WholeSpanFigures, licence: Licence, placement: Placement): MaskReading {
-  const h = ws.hold;
+function maskSpectrum(a: AnalysedCapture, f: EmissionFigures, ws: WholeSpanFigures, h: HoldSpectra, licence: Licence, placement: Placement): MaskReading {
   const detector = licence.maskDetector ?? "peak-hold";
   const referenceKind = licence.maskReference ?? "carrier";
   const n0 = a.pass1.noiseFloor.densityPerHz;
-  const ref = referenceLevel(f, ws, referenceKind, n0, placement.measureWidthHz);
+  const ref = referenceLevel(f, h, referenceKind, n0, placement.measureWidthHz);
   const levels = detector === "peak-hold" ? h.maxHoldDbfs : h.averageDbfs;
   const offsetHz = new Float64Array(h.frequencyHz.length);
   const levelDb = new Float64Array(h.frequencyHz.length);
@@ -298,17 +299,18 @@ function maskSpectrum(a: AnalysedCapture, f: EmissionFigures, ws: WholeSpanFigur
   return {
     offsetHz, levelDb, timeS: h.maxTimeS, noiseDb,
     coveredHz: placement.widthHz / 2 - Math.abs(placement.originInChannelHz),
-    uncertaintyDb: ref.uncertaintyDb + scallop,
+    uncertaintyDb: (ref.uncertaintyDb ?? 0) + scallop,
     referenceDbfs: ref.dbfs, reference: referenceKind, detector, resolutionHz: h.resolutionHz,
-    method: `${detector} over ${h.frameCount} Hann frames at ${h.resolutionHz.toFixed(1)} Hz RBW (${ws.durationS.toFixed(2)} s), relative to ${ref.description} ${ref.dbfs.toFixed(2)} dBFS; ± ${ref.uncertaintyDb.toFixed(2)} dB reference + ${scallop.toFixed(2)} dB scallop (k = 2)`,
+    method: `${detector} over ${h.frameCount} Hann frames at ${h.resolutionHz.toFixed(1)} Hz RBW (${ws.durationS.toFixed(2)} s), relative to ${ref.description} ${ref.dbfs.toFixed(2)} dBFS; ± ${ref.uncertaintyDb === null ? "(reference: not stated)" : `${ref.uncertaintyDb.toFixed(2)} dB reference`} + ${scallop.toFixed(2)} dB scallop (k = 2)`,
   };
 }
 
-function referenceLevel(f: EmissionFigures, ws: WholeSpanFigures, kind: "carrier" | "peak", n0: number, widthHz: number): { dbfs: number; uncertaintyDb: number; description: string } {
+function referenceLevel(f: EmissionFigures, hold: HoldSpectra, kind: "carrier" | "peak", n0: number, widthHz: number): { dbfs: number; uncertaintyDb: number | null; description: string } {
   const p = f.power.channelDbfs;
-  const u = p.uncertainty ?? 0.1;
-  if (kind === "peak" && ws.hold.bandPeakDbfs !== null) {
-    return { dbfs: ws.hold.bandPeakDbfs, uncertaintyDb: u, description: "the highest emission in the authorised bandwidth (per-frame power)" };
+  // A channel power without a stated uncertainty adds none here; the method line says so.
+  const u = p.uncertainty;
+  if (kind === "peak" && hold.bandPeakDbfs !== null) {
+    return { dbfs: hold.bandPeakDbfs, uncertaintyDb: u, description: "the highest emission in the authorised bandwidth (per-frame power)" };
   }
   const total = p.value === null ? NaN : 10 ** (p.value / 10) - n0 * widthHz;
   const dbfs = total > 0 ? 10 * Math.log10(total) : (p.value ?? NaN);
