@@ -7,7 +7,9 @@ import { decodeSamples, formatInfo } from "../capture/sampleFormat.js";
 import type { SampleFormat } from "../capture/source.js";
 import {
   HealthAccumulator,
+  sampleStore,
   SpectrogramAccumulator,
+  type FloatStore,
   WelchAccumulator,
   type HealthFigures,
   type Spectrogram,
@@ -46,7 +48,8 @@ export class Pass1Engine {
   private readonly welch: WelchAccumulator;
   private readonly spectrogram: SpectrogramAccumulator;
   private readonly health: HealthAccumulator;
-  private readonly decoded: Float32Array;
+  /** Decoded samples, in the fast engine's memory (dsp sampleStore): windowed and measured there. */
+  private readonly decoded: FloatStore;
   private readonly frameBytes: number;
 
   constructor(private readonly config: Pass1Config) {
@@ -63,7 +66,7 @@ export class Pass1Engine {
     });
     this.health = new HealthAccumulator();
     this.frameBytes = formatInfo(config.format).frameBytes;
-    this.decoded = new Float32Array(2 * (config.maxBlockSamples + prefixSamples(config)));
+    this.decoded = sampleStore(2 * (config.maxBlockSamples + prefixSamples(config)));
   }
 
   /**
@@ -74,9 +77,10 @@ export class Pass1Engine {
   processBlock(raw: Uint8Array, prefixFrames: number, ownedStart: number): void {
     const prefixBytes = prefixFrames * this.frameBytes;
     const { format, swapIq } = this.config;
-    const head = decodeSamples(format, raw.subarray(0, prefixBytes), this.decoded, swapIq);
-    const own = decodeSamples(format, raw.subarray(prefixBytes), this.decoded.subarray(2 * head.frames), swapIq);
-    const iq = this.decoded.subarray(0, 2 * (head.frames + own.frames));
+    const decoded = this.decoded.view();
+    const head = decodeSamples(format, raw.subarray(0, prefixBytes), decoded, swapIq);
+    const own = decodeSamples(format, raw.subarray(prefixBytes), decoded.subarray(2 * head.frames), swapIq);
+    const iq = decoded.subarray(0, 2 * (head.frames + own.frames));
     const dataStart = ownedStart - head.frames;
     this.health.addDecodeCounts(own);
     this.health.push(iq, dataStart, ownedStart);

@@ -1,22 +1,168 @@
 /**
- * The one FFT of iqaudit: a thin wrapper over fft.js (radix-4, complex, double precision), and
- * `transformInPlace` for long one-off transforms of a whole record (memory: the record alone).
- * No other module imports fft.js.
+ * The one FFT of iqaudit: the only module that imports an FFT library. Two kinds of transform:
+ *
+ * - `fftPlan(N)`: the reference, fft.js (radix-4, complex, double precision) on plain `number[]`
+ *   buffers, for the light uses (filter design, one-off checks) and as the reference the fast
+ *   engines are tested against.
+ * - `fastFft(N)`: the engine of the heavy paths (fastFft.ts), float32, its buffers inside the
+ *   engine: PFFFT compiled to WebAssembly with 128-bit SIMD (@echogarden/pffft-wasm, BSD-3-Clause)
+ *   when this process can run it, else fft.js on Float32Array buffers.
+ * - `transformInPlace` (transformInPlace.ts): long one-off transforms of a whole record, double precision.
+ *
+ * How the fast engine is chosen, once per process: the environment variable IQAUDIT_FFT =
+ * `fftjs` forces fft.js; `pffft` demands PFFFT (a process that cannot load it then stops with
+ * one line saying why); unset or `auto` takes PFFFT when its SIMD module loads (WebAssembly
+ * SIMD, in Node since 16.4) and fft.js otherwise. Sizes PFFFT cannot do (below 16 points) use
+ * fft.js whatever the choice. `fftImplementation()` tells what was chosen and why, for reports
+ * and benchmarks; `setFftImplementation` changes it for tests that run both.
  *
  * Conventions (set here, once):
- * - Buffers are plain `number[]` of length 2N, interleaved re, im, made by `createBuffer()`.
- *   fft.js runs fastest on plain arrays, and V8 slows every call once one process hands it
- *   several array types, so callers copy their Float32Array samples into such a buffer.
+ * - Buffers of `fftPlan` are plain `number[]` of length 2N, interleaved re, im, made by
+ *   `createBuffer()`. fft.js runs fastest on plain arrays.
  * - `forward` is the unscaled DFT X[k] = Σ_n x[n]·exp(−j2πkn/N) (the sign of the engineering
  *   convention, e.g. Oppenheim & Schafer, Discrete-Time Signal Processing, eq. 8.11).
- *   `inverse` is scaled by 1/N, so inverse(forward(x)) = x.
+ *   `fftPlan`'s `inverse` is scaled by 1/N, so inverse(forward(x)) = x; the fast engine's
+ *   inverse is unscaled (fastFft.ts).
  * - Bin order is natural: bin 0 is DC, bins 1..N/2−1 are positive frequencies k·fs/N, bin N/2 is
  *   the Nyquist bin (reported as −fs/2), bins N/2+1..N−1 are the negative frequencies
  *   (k − N)·fs/N. `toCentredOrder` turns that into centred order, index i ↔ (i − N/2)·fs/N,
- *   which is the order of every PSD and spectrogram iqaudit hands on.
+ *   which is the order of every PSD and spectrogram iqaudit hands on. The fast engine's
+ *   spectrum has a layout of its own (fastFft.ts), mapped to natural order by its `layout`.
  * - N is a power of two, at least 2 (an fft.js requirement).
  */
+import { readFileSync } from "node:fs";
 import FFT from "fft.js";
+import { FftJsFft, PffftDoubles, PffftFft, PffftFloats, pffftSupports, plainFloatStore, type FastFft, type FftImplementation, type FloatStore, type PffftContext, type PffftModule } from "./fastFft.js";
+import { FrameKernels } from "./frameKernels.js";
+
+export { isFftSize, naturalBinIndex, toCentredOrder } from "./fftOrder.js";
+export { transformInPlace } from "./transformInPlace.js";
+export {
+  slotsToNatural, naturalToSlots, type DoubleStore, type FastFft, type FftImplementation, type FloatStore, type FrameWindow,
+  type HeldSpectrum, type SpectrumLayout,
+} from "./fastFft.js";
+
+/** What was chosen for the fast engine, and why. */
+export interface FftChoice {
+  readonly implementation: FftImplementation;
+  /** One line: the setting and, when PFFFT is not used, the reason. */
+  readonly reason: string;
+  /** Why the IQAUDIT_FFT setting cannot be honoured, or null. */
+  readonly problem: string | null;
+}
+
+/** PFFFT's SIMD module with the frame kernels on its memory, or why it could not be loaded (loaded once, when this module is). */
+const pffft: { context: PffftContext | null; failure: string } = await loadPffft();
+
+/**
+ * Loads PFFFT's SIMD build through Emscripten's `instantiateWasm` hook, instantiating its .wasm
+ * here so that its memory is known, and binds the frame kernels to that memory.
+ */
+async function loadPffft(): Promise<{ context: PffftContext | null; failure: string }> {
+  if (process.env.IQAUDIT_FFT === "fftjs") return { context: null, failure: "IQAUDIT_FFT=fftjs" };
+  try {
+    const entry = import.meta.resolve("@echogarden/pffft-wasm/simd");
+    const wasm = new WebAssembly.Module(readFileSync(new URL("pffft.wasm", entry)));
+    let memory: WebAssembly.Memory | null = null;
+    const instantiateWasm = (imports: Record<string, Record<string, unknown>>, receive: (instance: WebAssembly.Instance) => void): Record<string, unknown> => {
+      const instance = new WebAssembly.Instance(wasm, imports);
+      memory = Object.values(instance.exports).find((e) => e instanceof WebAssembly.Memory) as WebAssembly.Memory | null ?? null;
+      receive(instance);
+      return instance.exports;
+    };
+    const factory = (await import("@echogarden/pffft-wasm/simd")).default;
+    const module = (await factory({ instantiateWasm })) as PffftModule;
+    if (memory === null) throw new Error("its module exports no memory");
+    return { context: { module, kernels: new FrameKernels(memory) }, failure: "" };
+  } catch (e) {
+    return { context: null, failure: `the PFFFT SIMD module did not load (${e instanceof Error ? e.message : String(e)})` };
+  }
+}
+
+let choice: FftChoice = initialChoice(process.env.IQAUDIT_FFT);
+
+/**
+ * The choice of the setting. A setting that cannot be honoured (an unknown value; `pffft` where it
+ * does not load) leaves fft.js chosen and a `problem`, which the CLI reports as one line and
+ * `fastFft` throws, so that nothing is computed with an engine that was not asked for.
+ */
+function initialChoice(setting: string | undefined): FftChoice {
+  if (setting === "fftjs") return { implementation: "fftjs", reason: "fft.js, forced by IQAUDIT_FFT=fftjs", problem: null };
+  if (setting !== undefined && setting !== "" && setting !== "auto" && setting !== "pffft") {
+    return { implementation: "fftjs", reason: "fft.js", problem: `IQAUDIT_FFT=${setting} is not one of fftjs, pffft, auto` };
+  }
+  if (pffft.context !== null) {
+    return { implementation: "pffft-simd", reason: `PFFFT SIMD (WebAssembly)${setting === "pffft" ? ", IQAUDIT_FFT=pffft" : ""}`, problem: null };
+  }
+  if (setting === "pffft") return { implementation: "fftjs", reason: "fft.js", problem: `IQAUDIT_FFT=pffft, but ${pffft.failure}` };
+  return { implementation: "fftjs", reason: `fft.js: ${pffft.failure}`, problem: null };
+}
+
+/** The fast engine's implementation and the reason it was chosen. */
+export function fftImplementation(): FftChoice {
+  return choice;
+}
+
+/** Whether PFFFT can be used in this process (for tests that run both implementations). */
+export function pffftAvailable(): boolean {
+  return pffft.context !== null;
+}
+
+/** Sets the implementation of engines made from now on (tests run both). Throws RangeError if PFFFT is asked for and cannot load. */
+export function setFftImplementation(implementation: FftImplementation): void {
+  if (implementation === "pffft-simd" && pffft.context === null) throw new RangeError(`PFFFT is not available: ${pffft.failure}`);
+  choice = { implementation, reason: implementation === "fftjs" ? "fft.js, set by the caller" : "PFFFT SIMD (WebAssembly), set by the caller", problem: null };
+}
+
+/**
+ * A new fast engine of N points with its own buffers (fastFft.ts), of the chosen implementation,
+ * or of `implementation` when given. Throws RangeError unless N is a power of two ≥ 2, or when
+ * the IQAUDIT_FFT setting cannot be honoured (FftChoice.problem).
+ */
+export function fastFft(size: number, implementation: FftImplementation = choice.implementation): FastFft {
+  if (choice.problem !== null) throw new RangeError(choice.problem);
+  if (!Number.isInteger(size) || size < 2 || (size & (size - 1)) !== 0) {
+    throw new RangeError(`fftLength ${size} is not a power of two of at least 2`);
+  }
+  if (implementation === "pffft-simd" && pffft.context !== null && pffftSupports(size)) return new PffftFft(pffft.context, size);
+  return new FftJsFft(fftJsEngine(size), size);
+}
+
+/**
+ * A store of `length` float32 samples where the chosen engine's kernels read them fastest (the
+ * PFFFT module's memory), for decoded blocks that are then windowed, transformed and measured.
+ */
+export function sampleStore(length: number): FloatStore {
+  if (choice.implementation === "pffft-simd" && pffft.context !== null) return new PffftFloats(pffft.context.module, length);
+  return plainFloatStore(length);
+}
+
+/**
+ * mean I, mean Q, Σ(I−μI)², Σ(Q−μQ)², Σ(I−μI)(Q−μQ) of complex samples first … n − 1 of `iq`
+ * computed by the SIMD kernel when `iq` lies in the PFFFT module's memory; null otherwise (the
+ * caller then computes them itself).
+ */
+export function kernelMoments(iq: Float32Array, first: number, n: number): Float64Array | null {
+  const context = pffft.context;
+  if (context === null || iq.buffer !== context.module.HEAPF32.buffer || n <= first) return null;
+  const out = momentsOut ?? (momentsOut = new PffftDoubles(context.module, 5));
+  context.kernels.moments(iq.byteOffset + 8 * first, n - first, out.pointer);
+  return out.view().slice();
+}
+
+let momentsOut: PffftDoubles | null = null;
+
+const fftJsEngines = new Map<number, FFT>();
+
+/** One fft.js instance per size (its tables; it keeps no state between calls). */
+function fftJsEngine(size: number): FFT {
+  let engine = fftJsEngines.get(size);
+  if (engine === undefined) {
+    engine = new FFT(size);
+    if (size <= CACHED_MAX_SIZE) fftJsEngines.set(size, engine);
+  }
+  return engine;
+}
 
 /** A planned transform of one size: twiddles and bit reversal computed once, then reused. */
 export interface FftPlan {
@@ -68,112 +214,3 @@ function doubleBuffer(a: number[]): number[] {
   return a;
 }
 
-/**
- * The DFT of `x` in place: `x` holds N complex values interleaved (re, im; length 2N, N a power
- * of two ≥ 2) and is overwritten by X, in the conventions above (forward unscaled, inverse
- * scaled by 1/N, natural bin order). For long one-off transforms of a whole record: iterative
- * radix-2 decimation in time after a bit-reversal permutation (Cooley & Tukey 1965; e.g.
- * Oppenheim & Schafer, Discrete-Time Signal Processing, §9.3), with the twiddles read from a
- * quarter-wave table of N/4 + 1 cosines (sines by symmetry), so that the memory is `x` (16 bytes
- * a point) and 2 bytes a point of table, where a plan holds a full table and needs a second
- * buffer (48 bytes a point, all in the JS heap). Throws RangeError unless N is a power of two ≥ 2.
- */
-export function transformInPlace(x: Float64Array, direction: "forward" | "inverse" = "forward"): void {
-  const n = x.length >> 1;
-  if (x.length !== 2 * n || !isFftSize(n)) throw new RangeError(`transform of ${x.length / 2} points: not a power of two of at least 2`);
-  bitReverse(x, n);
-  const m = Math.max(n, 4);
-  const cosines = quarterCosines(m);
-  const sign = direction === "forward" ? -1 : 1;
-  for (let half = 1; half < n; half *= 2) butterflies(x, n, half, cosines, m / (2 * half), sign);
-  if (direction === "inverse") for (let i = 0; i < 2 * n; i++) x[i] = (x[i] as number) / n;
-}
-
-/** cos(2πj/m) for j = 0 … m/4 (the last exactly 0): with sin(2πj/m) = cos(2π(m/4 − j)/m), every twiddle. */
-function quarterCosines(m: number): Float64Array {
-  const q = m >> 2;
-  const c = new Float64Array(q + 1);
-  for (let j = 0; j < q; j++) c[j] = Math.cos((2 * Math.PI * j) / m);
-  c[q] = 0;
-  return c;
-}
-
-/** Reorders the N complex values of `x` to bit-reversed index order (in place, by swaps). */
-function bitReverse(x: Float64Array, n: number): void {
-  for (let i = 1, j = 0; i < n; i++) {
-    let bit = n >> 1;
-    for (; j & bit; bit >>= 1) j ^= bit;
-    j ^= bit;
-    if (i < j) {
-      const r = x[2 * i] as number;
-      const m = x[2 * i + 1] as number;
-      x[2 * i] = x[2 * j] as number;
-      x[2 * i + 1] = x[2 * j + 1] as number;
-      x[2 * j] = r;
-      x[2 * j + 1] = m;
-    }
-  }
-}
-
-/**
- * One radix-2 stage, block by block in memory order: butterflies of span `half`, twiddle
- * e^(sign·j·2π·k·stride/m) for k = 0 … half − 1 (k·stride < m/2), from the quarter-wave table:
- * for k·stride ≤ m/4, cos = c[j] and sin = c[m/4 − j]; beyond, cos = −c[m/2 − j], sin = c[j − m/4].
- */
-function butterflies(x: Float64Array, n: number, half: number, c: Float64Array, stride: number, sign: number): void {
-  const q = c.length - 1;
-  const split = Math.min(half, Math.floor(q / stride) + 1);
-  for (let start = 0; start < 2 * n; start += 4 * half) {
-    for (let k = 0; k < split; k++) {
-      const j = k * stride;
-      butterfly(x, start + 2 * k, start + 2 * k + 2 * half, c[j] as number, sign * (c[q - j] as number));
-    }
-    for (let k = split; k < half; k++) {
-      const j = k * stride;
-      butterfly(x, start + 2 * k, start + 2 * k + 2 * half, -(c[2 * q - j] as number), sign * (c[j - q] as number));
-    }
-  }
-}
-
-/** x[a] ← x[a] + w·x[b], x[b] ← x[a] − w·x[b] (complex values at interleaved offsets a and b). */
-function butterfly(x: Float64Array, a: number, b: number, wr: number, wi: number): void {
-  const br = x[b] as number;
-  const bi = x[b + 1] as number;
-  const tr = wr * br - wi * bi;
-  const ti = wr * bi + wi * br;
-  const ar = x[a] as number;
-  const ai = x[a + 1] as number;
-  x[b] = ar - tr;
-  x[b + 1] = ai - ti;
-  x[a] = ar + tr;
-  x[a + 1] = ai + ti;
-}
-
-/** True when `n` is a size `fftPlan` accepts (a power of two, at least 2). */
-export function isFftSize(n: number): boolean {
-  return Number.isInteger(n) && n >= 2 && (n & (n - 1)) === 0;
-}
-
-/**
- * The natural-order bin that sits at centred index `centredIndex` of an N-point spectrum:
- * (centredIndex + N/2) mod N. Centred index i is the frequency (i − N/2)·fs/N.
- */
-export function naturalBinIndex(centredIndex: number, size: number): number {
-  const half = size >>> 1;
-  return centredIndex < half ? centredIndex + half : centredIndex - half;
-}
-
-/**
- * A copy of a natural-order spectrum of N values in centred order, each multiplied by `scale`:
- * out[i] = scale · natural[(i + N/2) mod N]. N must be even.
- */
-export function toCentredOrder(natural: Float64Array, scale = 1): Float64Array {
-  const n = natural.length;
-  const half = n >>> 1;
-  const out = new Float64Array(n);
-  for (let i = 0; i < half; i++) {
-    out[i] = scale * (natural[i + half] as number);
-    out[i + half] = scale * (natural[i] as number);
-  }
-  return out;
-}

@@ -25,6 +25,7 @@
  * accurate for long captures with a large DC offset.
  */
 import { powerToDb, DB_CEILING, DB_FLOOR } from "./db.js";
+import { kernelMoments } from "./fft.js";
 import { checkBlock } from "./frameGrid.js";
 
 /** The health figures of interface.md's `quality` section (the noise floor comes from noiseFloor.ts). */
@@ -102,8 +103,19 @@ export class HealthAccumulator {
   }
 }
 
-/** Mean and centred sums of complex samples first..n−1 of `iq`, in two passes. */
+/**
+ * Mean and centred sums of complex samples first..n−1 of `iq`, in two passes: by the SIMD
+ * kernel when `iq` lies in the fast engine's memory (fft.ts, kernelMoments: the same sums in the
+ * same order), else here.
+ */
 function blockMoments(iq: Float32Array, first: number, n: number): HealthState {
+  const m = kernelMoments(iq, first, n);
+  if (m !== null) {
+    return {
+      samples: n - first, meanI: m[0] as number, meanQ: m[1] as number, sumSqI: m[2] as number, sumSqQ: m[3] as number,
+      sumIQ: m[4] as number, clippedComponents: 0, nonFiniteSamples: 0,
+    };
+  }
   let si = 0;
   let sq = 0;
   for (let j = 2 * first; j < 2 * n; j += 2) {

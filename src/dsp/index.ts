@@ -1,4 +1,8 @@
-export { fftPlan, isFftSize, naturalBinIndex, toCentredOrder, transformInPlace, type FftPlan } from "./fft.js";
+export {
+  fftPlan, fastFft, fftImplementation, pffftAvailable, setFftImplementation, sampleStore, isFftSize, naturalBinIndex,
+  toCentredOrder, transformInPlace, slotsToNatural, naturalToSlots, type FftPlan, type FastFft, type FftChoice,
+  type FftImplementation, type FloatStore, type DoubleStore, type FrameWindow, type HeldSpectrum, type SpectrumLayout,
+} from "./fft.js";
 export {
   WINDOW_NAMES, isWindowName, windowCoefficients, coherentGain, enbwBins, windowPowerSum, type WindowName,
 } from "./windows.js";

@@ -10,8 +10,7 @@
  * (Heinzel et al. 2002, §9); each row keeps the mean and the maximum over its frames.
  * Blocks follow the contract of frameGrid.ts; frames past the span are ignored.
  */
-import { fftPlan, naturalBinIndex, type FftPlan } from "./fft.js";
-import { addPower, loadWindowedFrame } from "./framePower.js";
+import { fastFft, naturalBinIndex, naturalToSlots, slotsToNatural, type DoubleStore, type FastFft, type FrameWindow } from "./fft.js";
 import { checkBlock, frameGrid, framesInBlock, type FrameGrid } from "./frameGrid.js";
 import { windowCoefficients, windowPowerSum, type WindowName } from "./windows.js";
 
@@ -75,19 +74,23 @@ export class SpectrogramAccumulator {
   private readonly sampleRateHz: number;
   private readonly window: WindowName;
   private readonly grid: FrameGrid;
-  private readonly plan: FftPlan;
+  private readonly engine: FastFft;
   private readonly windowValues: Float64Array;
-  private readonly input: number[];
-  private readonly output: number[];
-  private powerSum: Float64Array;
-  private powerMax: Float64Array;
+  private readonly frameWindow: FrameWindow;
+  /**
+   * Per row, Σ |X|² and max |X|² in the engine's slot order (natural order in states), in the
+   * engine's stores (allocated here, not at the first push: an allocation may grow the engine's
+   * memory and so detach the block a caller is pushing).
+   */
+  private powerSum: DoubleStore;
+  private powerMax: DoubleStore;
   private framesPerRow: Uint32Array;
   /** False once anything was pushed or merged: a first merge may then take the state's arrays. */
   private empty = true;
 
   constructor(options: SpectrogramOptions) {
     const { fftLength, rowCount, totalSamples, sampleRateHz } = options;
-    this.plan = fftPlan(fftLength);
+    this.engine = fastFft(fftLength);
     if (!Number.isInteger(rowCount) || rowCount < 1) {
       throw new RangeError(`rowCount ${rowCount} is not a positive integer`);
     }
@@ -104,10 +107,9 @@ export class SpectrogramAccumulator {
     this.frameCount = Math.floor(totalSamples / fftLength);
     this.rowCount = Math.min(rowCount, this.frameCount);
     this.windowValues = windowCoefficients(this.window, fftLength);
-    this.input = this.plan.createBuffer();
-    this.output = this.plan.createBuffer();
-    this.powerSum = new Float64Array(this.rowCount * fftLength);
-    this.powerMax = new Float64Array(this.rowCount * fftLength);
+    this.frameWindow = this.engine.prepareWindow(this.windowValues);
+    this.powerSum = this.engine.createStore(this.rowCount * fftLength);
+    this.powerMax = this.engine.createStore(this.rowCount * fftLength);
     this.framesPerRow = new Uint32Array(this.rowCount);
   }
 
@@ -119,12 +121,14 @@ export class SpectrogramAccumulator {
     const l = this.fftLength;
     const rows = this.rowCount;
     const frames = this.frameCount;
-    if (last > firstFrame) this.empty = false;
+    if (last <= firstFrame) return;
+    this.empty = false;
+    const engine = this.engine;
     for (let k = firstFrame; k < last; k++) {
       const row = Math.floor((k * rows) / frames);
-      loadWindowedFrame(iq, k * l - dataStart, this.windowValues, this.input);
-      this.plan.forward(this.output, this.input);
-      addPower(this.output, this.powerSum, this.powerMax, row * l);
+      engine.loadWindowed(iq, k * l - dataStart, this.frameWindow);
+      engine.forward();
+      engine.addPower(this.powerSum, this.powerMax, row * l);
       this.framesPerRow[row] = (this.framesPerRow[row] as number) + 1;
     }
   }
@@ -134,23 +138,26 @@ export class SpectrogramAccumulator {
     return {
       fftLength: this.fftLength, rowCount: this.rowCount, frameCount: this.frameCount,
       sampleRateHz: this.sampleRateHz, window: this.window,
-      powerSum: this.powerSum.slice(), powerMax: this.powerMax.slice(), framesPerRow: this.framesPerRow.slice(),
+      powerSum: this.rows(this.powerSum, slotsToNatural), powerMax: this.rows(this.powerMax, slotsToNatural),
+      framesPerRow: this.framesPerRow.slice(),
     };
   }
 
   /**
-   * The state with the accumulator's own arrays, not copies (2 × R × N doubles not duplicated):
-   * for an accumulator that is done, whose state is handed over once (a worker's last message).
-   * The accumulator must not be used afterwards.
+   * The state, its arrays put in natural order one at a time (R × N doubles more at most, not
+   * 2 × R × N as a snapshot): for an accumulator that is done, whose state is handed over once
+   * (a worker's last message). The accumulator must not be used afterwards.
    */
   release(): SpectrogramState {
+    const powerSum = this.rows(this.powerSum, slotsToNatural);
+    this.powerSum = plainStore(new Float64Array(0));
     const state: SpectrogramState = {
       fftLength: this.fftLength, rowCount: this.rowCount, frameCount: this.frameCount,
       sampleRateHz: this.sampleRateHz, window: this.window,
-      powerSum: this.powerSum, powerMax: this.powerMax, framesPerRow: this.framesPerRow,
+      powerSum, powerMax: this.rows(this.powerMax, slotsToNatural), framesPerRow: this.framesPerRow,
     };
-    this.powerSum = new Float64Array(0);
-    this.powerMax = new Float64Array(0);
+    this.powerSum = plainStore(new Float64Array(0));
+    this.powerMax = plainStore(new Float64Array(0));
     this.framesPerRow = new Uint32Array(0);
     return state;
   }
@@ -173,14 +180,18 @@ export class SpectrogramAccumulator {
     }
     if (this.empty) {
       this.empty = false;
-      this.powerSum = state.powerSum;
-      this.powerMax = state.powerMax;
+      this.powerSum = plainStore(this.rows(plainStore(state.powerSum), naturalToSlots));
+      this.powerMax = plainStore(this.rows(plainStore(state.powerMax), naturalToSlots));
       this.framesPerRow = state.framesPerRow;
       return;
     }
-    for (let i = 0; i < this.powerSum.length; i++) {
-      this.powerSum[i] = (this.powerSum[i] as number) + (state.powerSum[i] as number);
-      if ((state.powerMax[i] as number) > (this.powerMax[i] as number)) this.powerMax[i] = state.powerMax[i] as number;
+    const sum = this.rows(plainStore(state.powerSum), naturalToSlots);
+    const max = this.rows(plainStore(state.powerMax), naturalToSlots);
+    const ownSum = this.powerSum.view();
+    const ownMax = this.powerMax.view();
+    for (let i = 0; i < ownSum.length; i++) {
+      ownSum[i] = (ownSum[i] as number) + (sum[i] as number);
+      if ((max[i] as number) > (ownMax[i] as number)) ownMax[i] = max[i] as number;
     }
     for (let r = 0; r < this.rowCount; r++) {
       this.framesPerRow[r] = (this.framesPerRow[r] as number) + (state.framesPerRow[r] as number);
@@ -196,15 +207,18 @@ export class SpectrogramAccumulator {
     const maxPerHz = new Float32Array(rows * l);
     const rowStartS = new Float64Array(rows);
     const rowStopS = new Float64Array(rows);
+    const powerSum = this.powerSum.view();
+    const powerMax = this.powerMax.view();
     const frameS = l / this.sampleRateHz;
     for (let r = 0; r < rows; r++) {
       const count = this.framesPerRow[r] as number;
       const meanScale = count > 0 ? scale / count : 0;
       const base = r * l;
+      const binSlot = this.engine.layout.binSlot;
       for (let i = 0; i < l; i++) {
-        const b = base + naturalBinIndex(i, l);
-        meanPerHz[base + i] = meanScale * (this.powerSum[b] as number);
-        maxPerHz[base + i] = scale * (this.powerMax[b] as number);
+        const b = base + (binSlot[naturalBinIndex(i, l)] as number);
+        meanPerHz[base + i] = meanScale * ((powerSum[b] ?? 0) as number);
+        maxPerHz[base + i] = scale * ((powerMax[b] ?? 0) as number);
       }
       rowStartS[r] = Math.ceil((r * this.frameCount) / rows) * frameS;
       rowStopS[r] = Math.ceil(((r + 1) * this.frameCount) / rows) * frameS;
@@ -214,4 +228,19 @@ export class SpectrogramAccumulator {
       window: this.window, meanPerHz, maxPerHz, framesPerRow: this.framesPerRow.slice(), rowStartS, rowStopS,
     };
   }
+
+  /** A copy of R rows of N values with each row permuted by `reorder` (slot ↔ natural order). */
+  private rows(store: DoubleStore, reorder: typeof slotsToNatural): Float64Array {
+    const l = this.fftLength;
+    const values = store.view();
+    const out = new Float64Array(this.rowCount * l);
+    if (values.length === 0) return out;
+    for (let base = 0; base < values.length; base += l) reorder(this.engine.layout, values, base, out, base);
+    return out;
+  }
+}
+
+/** A DoubleStore over a plain array. */
+function plainStore(values: Float64Array): DoubleStore {
+  return { length: values.length, view: () => values };
 }

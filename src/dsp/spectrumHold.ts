@@ -18,11 +18,11 @@
  * bins, P_m = Σ_k S_m[k]·(fs/N)/RBW (density S/RBW times the bin spacing), and that frame's
  * number: the reference "highest emission in a resolution bandwidth as wide as the band".
  * Memory: four arrays
- * of N doubles and the transform's two buffers, fixed at construction.
+ * of N doubles and the fast engine's buffers (five of 2N floats), fixed at construction. The
+ * spectrum is read through the engine's layout (fastFft.ts), so the sums stay in natural order.
  */
-import { fftPlan, toCentredOrder, type FftPlan } from "./fft.js";
+import { fastFft, toCentredOrder, type FastFft, type FrameWindow } from "./fft.js";
 import { checkBlock, frameGrid, framesInBlock, type FrameGrid } from "./frameGrid.js";
-import { loadWindowedFrame } from "./framePower.js";
 import { enbwBins, windowCoefficients, type WindowName } from "./windows.js";
 
 /** Options of a SpectrumHoldAccumulator. Defaults: hop floor(L/2), window "hann". */
@@ -78,10 +78,9 @@ export class SpectrumHoldAccumulator {
   private bandPeak = 0;
   private bandPeakAt = -1;
   private readonly grid: FrameGrid;
-  private readonly plan: FftPlan;
+  private readonly engine: FastFft;
   private readonly windowValues: Float64Array;
-  private readonly input: number[];
-  private readonly output: number[];
+  private readonly frameWindow: FrameWindow;
   private readonly sum: Float64Array;
   private readonly max: Float64Array;
   private readonly maxAt: Float64Array;
@@ -96,10 +95,9 @@ export class SpectrumHoldAccumulator {
     this.grid = frameGrid(frameLength, hopLength);
     let n = 2;
     while (n < frameLength) n *= 2;
-    this.plan = fftPlan(n);
+    this.engine = fastFft(n);
     this.windowValues = windowCoefficients(this.options.window, frameLength);
-    this.input = this.plan.createBuffer();
-    this.output = this.plan.createBuffer();
+    this.frameWindow = this.engine.prepareWindow(this.windowValues);
     this.sum = new Float64Array(n);
     this.max = new Float64Array(n);
     this.maxAt = new Float64Array(n).fill(-1);
@@ -110,7 +108,8 @@ export class SpectrumHoldAccumulator {
 
   /** The lengths of every array the accumulator holds (fixed at construction). */
   stateLengths(): number[] {
-    return [this.input.length, this.output.length, this.sum.length, this.max.length, this.maxAt.length, this.windowValues.length];
+    const buffer = 2 * this.engine.size;
+    return [buffer, buffer, buffer, buffer, buffer, this.sum.length, this.max.length, this.maxAt.length, this.windowValues.length];
   }
 
   /** Adds every frame of the block that it owns (frameGrid.ts). `iq` is interleaved I,Q. */
@@ -120,20 +119,22 @@ export class SpectrumHoldAccumulator {
     const h = this.grid.hopLength;
     for (let f = 0; f < frameCount; f++) {
       const frame = firstFrame + f;
-      loadWindowedFrame(iq, frame * h - dataStart, this.windowValues, this.input);
-      this.plan.forward(this.output, this.input);
+      this.engine.loadWindowed(iq, frame * h - dataStart, this.frameWindow);
+      this.engine.forward();
       this.addFrame(frame);
     }
     this.frames += frameCount;
   }
 
   private addFrame(frame: number): void {
-    const x = this.output;
+    const x = this.engine.spectrum();
+    const { realIndex, imagOffset } = this.engine.layout;
     const n = this.sum.length;
     const b = this.bandBins;
     let band = 0;
     for (let k = 0; k < n; k++) {
-      const p = (x[2 * k] as number) ** 2 + (x[2 * k + 1] as number) ** 2;
+      const i = realIndex[k] as number;
+      const p = (x[i] as number) ** 2 + (x[i + imagOffset] as number) ** 2;
       this.sum[k] = (this.sum[k] as number) + p;
       if (k <= b || k >= n - b) band += p;
       if (p > (this.max[k] as number)) {

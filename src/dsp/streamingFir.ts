@@ -8,11 +8,13 @@
  *
  * for m = 0, 1, …: the full convolution from a zero history, in order, whatever the block sizes.
  * Outputs come out in chunks of N − L + 1 (L the longer tap count, N the transform size, a power
- * of two ≥ 4L), so up to N − L samples are held back until the next push. Memory: four
- * transform buffers of 2N numbers and two output arrays of N − L + 1 doubles, fixed at
+ * of two ≥ 4L), so up to N − L samples are held back until the next push. The transforms run
+ * in the fast engine (fastFft.ts, float32): the input is written into its time buffer, the
+ * product of the spectra formed in its own layout. Memory: the engine's buffers (six of 2N
+ * floats with the held filter spectrum) and two output arrays of N − L + 1 doubles, fixed at
  * construction.
  */
-import { fftPlan, type FftPlan } from "./fft.js";
+import { fastFft, type FastFft, type HeldSpectrum } from "./fft.js";
 
 /** Receives each chunk: outputs m = firstIndex … firstIndex + count − 1 (views valid during the call). */
 export type FirSink = (a: Float64Array, b: Float64Array, count: number, firstIndex: number) => void;
@@ -23,11 +25,9 @@ export class StreamingFirPair {
   readonly tapCount: number;
   /** Transform size N. */
   readonly fftSize: number;
-  private readonly plan: FftPlan;
-  private readonly spectrum: number[];
-  private readonly input: number[];
-  private readonly work: number[];
-  private readonly output: number[];
+  private readonly engine: FastFft;
+  /** The spectrum of the packed filter a + j·b, in the engine's layout. */
+  private readonly filter: HeldSpectrum;
   private readonly outA: Float64Array;
   private readonly outB: Float64Array;
   /** Samples in `input` past the L − 1 of history. */
@@ -46,15 +46,13 @@ export class StreamingFirPair {
     while (n < 4 * l) n *= 2;
     this.tapCount = l;
     this.fftSize = n;
-    this.plan = fftPlan(n);
-    const taps = this.plan.createBuffer();
+    this.engine = fastFft(n);
+    const taps = this.engine.time();
     for (let k = 0; k < a.length; k++) taps[2 * k] = a[k] as number;
     for (let k = 0; k < second.length; k++) taps[2 * k + 1] = second[k] as number;
-    this.spectrum = this.plan.createBuffer();
-    this.plan.forward(this.spectrum, taps);
-    this.input = this.plan.createBuffer();
-    this.work = this.plan.createBuffer();
-    this.output = this.plan.createBuffer();
+    this.engine.forward();
+    this.filter = this.engine.hold();
+    this.engine.time().fill(0);
     this.outA = new Float64Array(n - l + 1);
     this.outB = new Float64Array(n - l + 1);
   }
@@ -68,8 +66,8 @@ export class StreamingFirPair {
   push(x: ArrayLike<number>, sink: FirSink, from = 0, to = x.length): void {
     const hist = this.tapCount - 1;
     const block = this.fftSize - hist;
-    const input = this.input;
     for (let i = from; i < to;) {
+      const input = this.engine.time();
       const take = Math.min(block - this.filled, to - i);
       for (let j = 0; j < take; j++) input[2 * (hist + this.filled + j)] = x[i + j] as number;
       this.filled += take;
@@ -82,17 +80,11 @@ export class StreamingFirPair {
   private runChunk(sink: FirSink): void {
     const n = this.fftSize;
     const hist = this.tapCount - 1;
-    const { plan, input, work, output, spectrum } = this;
-    plan.forward(work, input);
-    for (let k = 0; k < n; k++) {
-      const xr = work[2 * k] as number;
-      const xi = work[2 * k + 1] as number;
-      const hr = spectrum[2 * k] as number;
-      const hi = spectrum[2 * k + 1] as number;
-      work[2 * k] = xr * hr - xi * hi;
-      work[2 * k + 1] = xr * hi + xi * hr;
-    }
-    plan.inverse(output, work);
+    const engine = this.engine;
+    engine.forward();
+    engine.multiply(this.filter, 1 / n);
+    engine.inverse();
+    const output = engine.output();
     const count = n - hist;
     for (let j = 0; j < count; j++) {
       this.outA[j] = output[2 * (hist + j)] as number;
@@ -100,7 +92,8 @@ export class StreamingFirPair {
     }
     sink(this.outA, this.outB, count, this.produced);
     this.produced += count;
-    for (let j = 0; j < hist; j++) input[2 * j] = input[2 * (count + j)] as number;
+    const input = engine.time();
+    input.copyWithin(0, 2 * count, 2 * (count + hist));
     this.filled = 0;
   }
 }

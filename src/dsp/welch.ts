@@ -12,7 +12,7 @@
  * power E|z|² (Parseval). The resolution bandwidth is ENBW = N·Σw²/(Σw)² bins.
  * Blocks follow the contract of frameGrid.ts.
  */
-import { fftPlan, toCentredOrder, type FftPlan } from "./fft.js";
+import { fastFft, naturalToSlots, slotsToNatural, toCentredOrder, type DoubleStore, type FastFft, type FrameWindow } from "./fft.js";
 import { accumulateFrames } from "./framePower.js";
 import { checkBlock, frameGrid, framesInBlock, type FrameGrid } from "./frameGrid.js";
 import { enbwBins, windowCoefficients, windowPowerSum, type WindowName } from "./windows.js";
@@ -67,23 +67,24 @@ export function binFrequencyHz(psd: WelchPsd, binIndex: number): number {
 
 /**
  * Streams blocks into a Welch PSD: `push` blocks (frameGrid.ts contract), `snapshot`/`merge` to
- * combine workers, `finish` for the result. Memory: 2 × fftLength doubles of state.
+ * combine workers, `finish` for the result. Memory: 2 × fftLength doubles of state and the
+ * engine's buffers (five of 2 × fftLength floats).
  */
 export class WelchAccumulator {
   private readonly options: Required<WelchOptions>;
   private readonly grid: FrameGrid;
-  private readonly plan: FftPlan;
+  private readonly engine: FastFft;
   private readonly windowValues: Float64Array;
-  private readonly input: number[];
-  private readonly output: number[];
-  private readonly powerSum: Float64Array;
-  private readonly powerMax: Float64Array;
+  private readonly frameWindow: FrameWindow;
+  /** Σ_m |X_m|² and max_m |X_m|², in the engine's slot order (natural order in snapshots). */
+  private readonly powerSum: DoubleStore;
+  private readonly powerMax: DoubleStore;
   private segmentCount = 0;
 
   constructor(options: WelchOptions) {
     const { fftLength, sampleRateHz } = options;
     const overlapLength = options.overlapLength ?? Math.floor(fftLength / 2);
-    this.plan = fftPlan(fftLength);
+    this.engine = fastFft(fftLength);
     if (!Number.isInteger(overlapLength) || overlapLength < 0 || overlapLength >= fftLength) {
       throw new RangeError(`overlapLength ${overlapLength} is outside [0, fftLength ${fftLength})`);
     }
@@ -93,10 +94,9 @@ export class WelchAccumulator {
     this.options = { fftLength, overlapLength, window: options.window ?? "hann", sampleRateHz };
     this.grid = frameGrid(fftLength, fftLength - overlapLength);
     this.windowValues = windowCoefficients(this.options.window, fftLength);
-    this.input = this.plan.createBuffer();
-    this.output = this.plan.createBuffer();
-    this.powerSum = new Float64Array(fftLength);
-    this.powerMax = new Float64Array(fftLength);
+    this.frameWindow = this.engine.prepareWindow(this.windowValues);
+    this.powerSum = this.engine.createStore(fftLength);
+    this.powerMax = this.engine.createStore(fftLength);
   }
 
   /** Adds every segment of the block that it owns (frameGrid.ts). `iq` is interleaved I,Q. */
@@ -105,16 +105,13 @@ export class WelchAccumulator {
     const { firstFrame, frameCount } = framesInBlock(this.grid, dataStart, n, ownedStart);
     if (frameCount === 0) return;
     const h = this.grid.hopLength;
-    accumulateFrames(
-      this.plan, iq, firstFrame * h - dataStart, frameCount, h, this.windowValues,
-      this.input, this.output, this.powerSum, this.powerMax, 0,
-    );
+    accumulateFrames(this.engine, iq, firstFrame * h - dataStart, frameCount, h, this.frameWindow, this.powerSum, this.powerMax, 0);
     this.segmentCount += frameCount;
   }
 
   /** A copy of the state, for postMessage to the merging side. */
   snapshot(): WelchState {
-    return { ...this.options, segmentCount: this.segmentCount, powerSum: this.powerSum.slice(), powerMax: this.powerMax.slice() };
+    return { ...this.options, segmentCount: this.segmentCount, powerSum: this.natural(this.powerSum), powerMax: this.natural(this.powerMax) };
   }
 
   /** Adds another accumulator's state. Throws RangeError if its settings differ from these. */
@@ -127,9 +124,15 @@ export class WelchAccumulator {
         + `does not match (${o.fftLength}, ${o.overlapLength}, ${o.window}, ${o.sampleRateHz} Hz)`,
       );
     }
-    for (let k = 0; k < o.fftLength; k++) {
-      this.powerSum[k] = (this.powerSum[k] as number) + (state.powerSum[k] as number);
-      if ((state.powerMax[k] as number) > (this.powerMax[k] as number)) this.powerMax[k] = state.powerMax[k] as number;
+    const sum = new Float64Array(o.fftLength);
+    const max = new Float64Array(o.fftLength);
+    naturalToSlots(this.engine.layout, state.powerSum, 0, sum, 0);
+    naturalToSlots(this.engine.layout, state.powerMax, 0, max, 0);
+    const ownSum = this.powerSum.view();
+    const ownMax = this.powerMax.view();
+    for (let j = 0; j < o.fftLength; j++) {
+      ownSum[j] = (ownSum[j] as number) + (sum[j] as number);
+      if ((max[j] as number) > (ownMax[j] as number)) ownMax[j] = max[j] as number;
     }
     this.segmentCount += state.segmentCount;
   }
@@ -145,8 +148,15 @@ export class WelchAccumulator {
       binWidthHz,
       enbwHz: enbwBins(this.windowValues) * binWidthHz,
       segmentCount: m,
-      densityPerHz: toCentredOrder(this.powerSum, m > 0 ? densityScale / m : 0),
-      maxHoldPerHz: toCentredOrder(this.powerMax, densityScale),
+      densityPerHz: toCentredOrder(this.natural(this.powerSum), m > 0 ? densityScale / m : 0),
+      maxHoldPerHz: toCentredOrder(this.natural(this.powerMax), densityScale),
     };
+  }
+
+  /** A natural-order copy of slot-order values. */
+  private natural(store: DoubleStore): Float64Array {
+    const out = new Float64Array(store.length);
+    slotsToNatural(this.engine.layout, store.view(), 0, out, 0);
+    return out;
   }
 }

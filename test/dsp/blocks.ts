@@ -1,6 +1,8 @@
 // Helpers for the block-contract tests: the same samples fed as one block, as random-sized
 // blocks each carrying a prefix of `prefix` samples before its owned start, and to two
 // accumulators taking alternate blocks (the orchestrator's two workers).
+import { afterAll, beforeAll } from "vitest";
+import { fftImplementation, pffftAvailable, setFftImplementation, type FftImplementation } from "../../src/dsp/index.js";
 import { SeededRandom } from "../../src/scenario/index.js";
 
 export interface BlockSink {
@@ -49,4 +51,14 @@ export function complexTone(n: number, amplitude: number, frequencyHz: number, s
     out[2 * k + 1] = amplitude * Math.sin(a);
   }
   return out;
+}
+
+/** The fast-FFT implementations this process can run: PFFFT SIMD (where it loads) and fft.js. */
+export const FFT_IMPLEMENTATIONS: FftImplementation[] = pffftAvailable() ? ["pffft-simd", "fftjs"] : ["fftjs"];
+
+/** Inside a describe: its tests run with `implementation` chosen, the process's choice restored after. */
+export function useFftImplementation(implementation: FftImplementation): void {
+  const before = fftImplementation().implementation;
+  beforeAll(() => setFftImplementation(implementation));
+  afterAll(() => setFftImplementation(before));
 }

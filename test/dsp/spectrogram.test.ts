@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { SpectrogramAccumulator, type Spectrogram } from "../../src/dsp/index.js";
 import { complexNoise, SeededRandom } from "../../src/scenario/index.js";
-import { complexTone, maxRelativeDifference, pushBlocks, randomPartition } from "./blocks.js";
+import { complexTone, FFT_IMPLEMENTATIONS, maxRelativeDifference, pushBlocks, randomPartition, useFftImplementation } from "./blocks.js";
 
 function spectrogramOf(iq: Float32Array, fftLength: number, rowCount: number, sampleRateHz: number): Spectrogram {
   const acc = new SpectrogramAccumulator({ fftLength, rowCount, totalSamples: iq.length / 2, sampleRateHz });
@@ -9,7 +9,10 @@ function spectrogramOf(iq: Float32Array, fftLength: number, rowCount: number, sa
   return acc.finish();
 }
 
-describe("SpectrogramAccumulator", () => {
+// Every test runs on both fast-FFT implementations (fastFft.ts): the calibration must not depend on the engine.
+describe.each(FFT_IMPLEMENTATIONS)("SpectrogramAccumulator on %s", (implementation) => {
+  useFftImplementation(implementation);
+
   it("keeps the requested row count whatever the span length, and fewer only when frames run out", () => {
     for (const frames of [100, 1000, 12_345]) {
       const acc = new SpectrogramAccumulator({ fftLength: 64, rowCount: 50, totalSamples: frames * 64 + 13, sampleRateHz: 1 });

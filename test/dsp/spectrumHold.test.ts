@@ -3,9 +3,12 @@
 import { describe, expect, it } from "vitest";
 import { SpectrumHoldAccumulator, holdFrameLength, wholeFrameCount, frameGrid } from "../../src/dsp/index.js";
 import { complexNoise, SeededRandom } from "../../src/scenario/index.js";
-import { complexTone, maxRelativeDifference, pushBlocks, randomPartition } from "./blocks.js";
+import { complexTone, FFT_IMPLEMENTATIONS, maxRelativeDifference, pushBlocks, randomPartition, useFftImplementation } from "./blocks.js";
 
-describe("SpectrumHoldAccumulator(options)", () => {
+// Every test runs on both fast-FFT implementations (fastFft.ts): the calibration must not depend on the engine.
+describe.each(FFT_IMPLEMENTATIONS)("SpectrumHoldAccumulator(options) on %s", (implementation) => {
+  useFftImplementation(implementation);
+
   it("has ENBW 1.5·fs/L for Hann frames of holdFrameLength(RBW) (Harris 1978 Table 1: Hann ENBW 1.50 bins)", () => {
     const l = holdFrameLength(300, 48_000);
     expect(l).toBe(240);
