@@ -1,10 +1,11 @@
 /**
  * One benchmark run in its own process, so that its peak RSS is its own: pass 1 of a capture,
- * or the raw read of it, or its FFTs alone. Prints one JSON line.
+ * or the raw read of it, or its SHA-256 alone, or its FFTs alone. Prints one JSON line.
  */
+import { createHash } from "node:crypto";
 import { open } from "node:fs/promises";
 import { openCapture, resolveSpan } from "../capture/index.js";
-import { runPass1 } from "../analysis/index.js";
+import { PASS1_DEFAULTS, runPass1 } from "../analysis/index.js";
 import { measureEmission } from "../analysis/measureEmission.js";
 import { fftPlan } from "../dsp/index.js";
 import { surveyCapture } from "../survey/index.js";
@@ -15,7 +16,7 @@ async function main(): Promise<void> {
   const [mode, path, workersText] = process.argv.slice(2) as [string, string, string | undefined];
   const started = process.hrtime.bigint();
   let samples = 0;
-  let extra: Record<string, number> = {};
+  let extra: Record<string, number | string> = {};
   if (mode === "pass1") {
     const source = await openCapture(path, {});
     const { span } = resolveSpan(source.meta);
@@ -76,6 +77,10 @@ async function main(): Promise<void> {
     }
     await handle.close();
     samples = bytes / 8;
+  } else if (mode === "hash") {
+    const r = await hashFile(path);
+    samples = r.bytes / 8;
+    extra = { sha256: r.sha256 };
   } else if (mode === "fft") {
     // The same transforms as pass 1 of `samples` samples: Welch 4096 at 50 % overlap and
     // spectrogram frames of 1024 without overlap, single thread.
@@ -96,6 +101,30 @@ async function main(): Promise<void> {
   const seconds = Number(process.hrtime.bigint() - started) / 1e9;
   const maxRssMiB = process.resourceUsage().maxRSS / 1024;
   process.stdout.write(`${JSON.stringify({ mode, samples, seconds, maxRssMiB, ...extra })}\n`);
+}
+
+/**
+ * SHA-256 of the file read in pass 1's block size (cf32: 8 bytes a sample), the next read
+ * started before the current block is hashed, as pass 1's sweep does: what hashing alone costs.
+ */
+async function hashFile(path: string): Promise<{ bytes: number; sha256: string }> {
+  const handle = await open(path, "r");
+  const hash = createHash("sha256");
+  const size = PASS1_DEFAULTS.blockSamples * 8;
+  const buffers = [new Uint8Array(size), new Uint8Array(size)] as const;
+  let bytes = 0;
+  let turn = 0;
+  let next = handle.read(buffers[turn], 0, size, bytes);
+  for (;;) {
+    const { bytesRead, buffer } = await next;
+    if (bytesRead === 0) break;
+    bytes += bytesRead;
+    turn ^= 1;
+    next = handle.read(buffers[turn], 0, size, bytes);
+    hash.update(buffer.subarray(0, bytesRead));
+  }
+  await handle.close();
+  return { bytes, sha256: hash.digest("hex") };
 }
 
 main().catch((e: unknown) => {
