@@ -105,7 +105,7 @@ export class Pass1Engine {
     };
   }
 
-  /** Adds another engine's state; into an engine that holds nothing yet, the spectrogram's rows are taken over (SpectrogramAccumulator.merge). */
+  /** Adds another engine's state (SpectrogramAccumulator.merge puts its rows in slot order one row at a time). */
   merge(state: Pass1EngineState): void {
     this.welch.merge(state.welch);
     this.spectrogram.merge(state.spectrogram);

@@ -7,7 +7,7 @@ import { open } from "node:fs/promises";
 import { openCapture, resolveSpan } from "../capture/index.js";
 import { PASS1_DEFAULTS, runPass1 } from "../analysis/index.js";
 import { measureEmission } from "../analysis/measureEmission.js";
-import { fftPlan } from "../dsp/index.js";
+import { fastFft, fftImplementation } from "../dsp/index.js";
 import { surveyCapture } from "../survey/index.js";
 import { checkCommand } from "../commands/check.js";
 import { BENCH_CHECK } from "./benchData.js";
@@ -17,6 +17,7 @@ async function main(): Promise<void> {
   const started = process.hrtime.bigint();
   let samples = 0;
   let extra: Record<string, number | string> = {};
+  let implementation: string | undefined;
   if (mode === "pass1") {
     const source = await openCapture(path, {});
     const { span } = resolveSpan(source.meta);
@@ -83,24 +84,22 @@ async function main(): Promise<void> {
     extra = { sha256: r.sha256 };
   } else if (mode === "fft") {
     // The same transforms as pass 1 of `samples` samples: Welch 4096 at 50 % overlap and
-    // spectrogram frames of 1024 without overlap, single thread.
+    // spectrogram frames of 1024 without overlap, single thread, in the fast engine that
+    // IQAUDIT_FFT chooses (transforms alone: no window, no power sums).
     samples = Number(path);
-    const welch = fftPlan(4096);
-    const rows = fftPlan(1024);
-    const a = welch.createBuffer();
-    const b = welch.createBuffer();
-    const c = rows.createBuffer();
-    const d = rows.createBuffer();
-    for (let k = 0; k < a.length; k++) a[k] = Math.sin(k);
-    for (let k = 0; k < c.length; k++) c[k] = Math.cos(k);
+    const welch = fastFft(4096);
+    const rows = fastFft(1024);
+    welch.time().forEach((_, k, t) => { t[k] = Math.sin(k); });
+    rows.time().forEach((_, k, t) => { t[k] = Math.cos(k); });
     const welchCount = Math.floor((samples - 4096) / 2048) + 1;
     const rowCount = Math.floor(samples / 1024);
-    for (let k = 0; k < welchCount; k++) welch.forward(b, a);
-    for (let k = 0; k < rowCount; k++) rows.forward(d, c);
+    for (let k = 0; k < welchCount; k++) welch.forward();
+    for (let k = 0; k < rowCount; k++) rows.forward();
+    implementation = fftImplementation().implementation;
   }
   const seconds = Number(process.hrtime.bigint() - started) / 1e9;
   const maxRssMiB = process.resourceUsage().maxRSS / 1024;
-  process.stdout.write(`${JSON.stringify({ mode, samples, seconds, maxRssMiB, ...extra })}\n`);
+  process.stdout.write(`${JSON.stringify({ mode, samples, seconds, maxRssMiB, ...extra, fft: fftImplementation().implementation, ...(implementation === undefined ? {} : { implementation }) })}\n`);
 }
 
 /**

@@ -10,6 +10,7 @@
  * format (or at |x| >= 1 for a float format) counts as clipped.
  */
 import type { SampleFormat } from "./source.js";
+import { kernelScrub } from "../dsp/index.js";
 
 export interface FormatInfo {
   readonly format: SampleFormat;
@@ -179,8 +180,13 @@ function decodeF64(v: DataView, n: number, out: Float32Array, stride: number): v
   for (let k = 0; k < n; k++) out[k * stride] = v.getFloat64(8 * k, true);
 }
 
-/** Zeroes frames with a non-finite component; counts them and the components at |x| >= 1. */
+/**
+ * Zeroes frames with a non-finite component; counts them and the components at |x| >= 1. By the
+ * SIMD kernel when `out` lies in the fast engine's memory (dsp kernelScrub: the same rule), else here.
+ */
 function scrubFloat(out: Float32Array, frames: number): { clipped: number; nonFinite: number } {
+  const kernel = kernelScrub(out, frames);
+  if (kernel !== null) return kernel;
   let clipped = 0;
   let nonFinite = 0;
   for (let k = 0; k < frames; k++) {

@@ -152,6 +152,20 @@ export function kernelMoments(iq: Float32Array, first: number, n: number): Float
 
 let momentsOut: PffftDoubles | null = null;
 
+/**
+ * The scrub of float samples by the SIMD kernel, when `iq` lies in the PFFFT module's memory:
+ * samples 0 … frames − 1 with a NaN or infinite component become 0 and are counted, components
+ * with |x| ≥ 1 are counted as clipped. Null otherwise (the caller then scrubs them itself).
+ */
+export function kernelScrub(iq: Float32Array, frames: number): { clipped: number; nonFinite: number } | null {
+  const context = pffft.context;
+  if (context === null || iq.buffer !== context.module.HEAPF32.buffer || 2 * frames > iq.length) return null;
+  const out = momentsOut ?? (momentsOut = new PffftDoubles(context.module, 5));
+  context.kernels.scrub(iq.byteOffset, frames, out.pointer);
+  const counts = new Int32Array(context.module.HEAPF32.buffer, out.pointer, 2);
+  return { nonFinite: counts[0] as number, clipped: counts[1] as number };
+}
+
 const fftJsEngines = new Map<number, FFT>();
 
 /** One fft.js instance per size (its tables; it keeps no state between calls). */

@@ -9,6 +9,7 @@ interface KernelExports {
   window(src: number, win: number, dst: number, count: number): void;
   power(spec: number, sum: number, max: number, count: number): void;
   moments(src: number, count: number, out: number): void;
+  scrub(src: number, frames: number, out: number): void;
 }
 
 /** The kernels, bound to one memory. */
@@ -35,5 +36,10 @@ export class FrameKernels {
   /** mean I, mean Q, Σ(I−μI)², Σ(Q−μQ)², Σ(I−μI)(Q−μQ) of `count` complex float32 samples, into 5 float64 at `out`. */
   moments(src: number, count: number, out: number): void {
     this.exports.moments(src, count, out);
+  }
+
+  /** Zeroes samples with a non-finite component; writes (non-finite samples, clipped components) as two int32 at `out`. */
+  scrub(src: number, frames: number, out: number): void {
+    this.exports.scrub(src, frames, out);
   }
 }

@@ -79,4 +79,42 @@
     (v128.store align=8 (local.get $out) (local.get $m))
     (v128.store offset=16 align=8 (local.get $out) (local.get $sq))
     (f64.store offset=32 (local.get $out) (f64x2.extract_lane 0 (local.get $cross))))
+;; Scrub of $frames complex float32 samples at $p, in place: a sample with a NaN or infinite
+  ;; component becomes 0 + 0j and is counted; components with |x| ≥ 1 are counted as clipped.
+  ;; The two counts go to $out as two i32 (non-finite samples, clipped components). Two samples
+  ;; a vector: when all four |x| < 1 (false for NaN) nothing else is looked at.
+  (global $nonFinite (mut i32) (i32.const 0))
+  (global $clipped (mut i32) (i32.const 0))
+  (func $scrubOne (param $p i32)
+    (local $i f32) (local $q f32)
+    (local.set $i (f32.load (local.get $p)))
+    (local.set $q (f32.load offset=4 (local.get $p)))
+    ;; x − x is NaN exactly when x is NaN or infinite, and NaN ≠ NaN.
+    (if (i32.or
+          (f32.ne (f32.sub (local.get $i) (local.get $i)) (f32.sub (local.get $i) (local.get $i)))
+          (f32.ne (f32.sub (local.get $q) (local.get $q)) (f32.sub (local.get $q) (local.get $q))))
+      (then
+        (f32.store (local.get $p) (f32.const 0))
+        (f32.store offset=4 (local.get $p) (f32.const 0))
+        (global.set $nonFinite (i32.add (global.get $nonFinite) (i32.const 1))))
+      (else
+        (global.set $clipped (i32.add (global.get $clipped)
+          (i32.add (f32.ge (f32.abs (local.get $i)) (f32.const 1)) (f32.ge (f32.abs (local.get $q)) (f32.const 1))))))))
+  (func (export "scrub") (param $p i32) (param $frames i32) (param $out i32)
+    (local $end i32)
+    (global.set $nonFinite (i32.const 0))
+    (global.set $clipped (i32.const 0))
+    (local.set $end (i32.add (local.get $p) (i32.shl (local.get $frames) (i32.const 3))))
+    (block $done
+      (loop $next
+        (br_if $done (i32.gt_u (i32.add (local.get $p) (i32.const 16)) (local.get $end)))
+        (if (i32.eqz (i32x4.all_true (f32x4.lt (f32x4.abs (v128.load align=4 (local.get $p))) (f32x4.splat (f32.const 1)))))
+          (then
+            (call $scrubOne (local.get $p))
+            (call $scrubOne (i32.add (local.get $p) (i32.const 8)))))
+        (local.set $p (i32.add (local.get $p) (i32.const 16)))
+        (br $next)))
+    (if (i32.lt_u (local.get $p) (local.get $end)) (then (call $scrubOne (local.get $p))))
+    (i32.store (local.get $out) (global.get $nonFinite))
+    (i32.store offset=4 (local.get $out) (global.get $clipped)))
 )

@@ -1,5 +1,5 @@
 export {
-  fftPlan, fastFft, fftImplementation, pffftAvailable, setFftImplementation, sampleStore, isFftSize, naturalBinIndex,
+  fftPlan, fastFft, fftImplementation, pffftAvailable, setFftImplementation, sampleStore, kernelScrub, isFftSize, naturalBinIndex,
   toCentredOrder, transformInPlace, slotsToNatural, naturalToSlots, type FftPlan, type FastFft, type FftChoice,
   type FftImplementation, type FloatStore, type DoubleStore, type FrameWindow, type HeldSpectrum, type SpectrumLayout,
 } from "./fft.js";

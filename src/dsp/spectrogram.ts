@@ -85,8 +85,6 @@ export class SpectrogramAccumulator {
   private powerSum: DoubleStore;
   private powerMax: DoubleStore;
   private framesPerRow: Uint32Array;
-  /** False once anything was pushed or merged: a first merge may then take the state's arrays. */
-  private empty = true;
 
   constructor(options: SpectrogramOptions) {
     const { fftLength, rowCount, totalSamples, sampleRateHz } = options;
@@ -122,7 +120,6 @@ export class SpectrogramAccumulator {
     const rows = this.rowCount;
     const frames = this.frameCount;
     if (last <= firstFrame) return;
-    this.empty = false;
     const engine = this.engine;
     for (let k = firstFrame; k < last; k++) {
       const row = Math.floor((k * rows) / frames);
@@ -164,9 +161,7 @@ export class SpectrogramAccumulator {
 
   /**
    * Adds another accumulator's state. Throws RangeError if its settings differ from these.
-   * Merged into an accumulator that holds nothing yet, the state's arrays are taken over rather
-   * than added to zeros (the same sums, without touching 2 × R × N more doubles): the state is
-   * then owned by this accumulator and must not be changed by the caller.
+   * The state's rows are put in the engine's slot order one row at a time (fastFft.ts).
    */
   merge(state: SpectrogramState): void {
     if (state.fftLength !== this.fftLength || state.rowCount !== this.rowCount || state.frameCount !== this.frameCount
@@ -178,20 +173,20 @@ export class SpectrogramAccumulator {
         + `does not match (${this.fftLength} × ${this.rowCount} rows of ${this.frameCount} frames, ${this.window})`,
       );
     }
-    if (this.empty) {
-      this.empty = false;
-      this.powerSum = plainStore(this.rows(plainStore(state.powerSum), naturalToSlots));
-      this.powerMax = plainStore(this.rows(plainStore(state.powerMax), naturalToSlots));
-      this.framesPerRow = state.framesPerRow;
-      return;
-    }
-    const sum = this.rows(plainStore(state.powerSum), naturalToSlots);
-    const max = this.rows(plainStore(state.powerMax), naturalToSlots);
-    const ownSum = this.powerSum.view();
-    const ownMax = this.powerMax.view();
-    for (let i = 0; i < ownSum.length; i++) {
-      ownSum[i] = (ownSum[i] as number) + (sum[i] as number);
-      if ((max[i] as number) > (ownMax[i] as number)) ownMax[i] = max[i] as number;
+    // Row by row through one row of scratch: no second R × N copy of the state.
+    const l = this.fftLength;
+    const layout = this.engine.layout;
+    const sum = new Float64Array(l);
+    const max = new Float64Array(l);
+    for (let base = 0; base < state.powerSum.length; base += l) {
+      naturalToSlots(layout, state.powerSum, base, sum, 0);
+      naturalToSlots(layout, state.powerMax, base, max, 0);
+      const ownSum = this.powerSum.view();
+      const ownMax = this.powerMax.view();
+      for (let j = 0; j < l; j++) {
+        ownSum[base + j] = (ownSum[base + j] as number) + (sum[j] as number);
+        if ((max[j] as number) > (ownMax[base + j] as number)) ownMax[base + j] = max[j] as number;
+      }
     }
     for (let r = 0; r < this.rowCount; r++) {
       this.framesPerRow[r] = (this.framesPerRow[r] as number) + (state.framesPerRow[r] as number);

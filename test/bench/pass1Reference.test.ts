@@ -111,7 +111,7 @@ describe.skipIf(!havePython)("pass1Reference.py against iqaudit's pass 1 accumul
     expect(ours.clippingPercent).toBeCloseTo((100 * 2) / (2 * SAMPLES), 12);
   });
 
-  it("WelchAccumulator matches scipy.signal.welch in float64", () => {
+  it("WelchAccumulator matches scipy.signal.welch (float64) to float32 rounding", () => {
     // scipy.signal.welch(z, fs, window="hann", nperseg=4096, noverlap=2048, detrend=False,
     // return_onesided=False, scaling="density"), fftshift-ed, on the decoded samples (NaN → 0).
     const samples = join(dir, "decoded.cf32");
@@ -127,7 +127,9 @@ describe.skipIf(!havePython)("pass1Reference.py against iqaudit's pass 1 accumul
     const scipyPsd = JSON.parse(run.stdout) as number[];
     const acc = new WelchAccumulator({ fftLength: 4096, overlapLength: 2048, sampleRateHz: RATE_HZ });
     acc.push(decoded, 0);
-    // Both in float64: rounding of a 4096-point transform, about 1e-13 of the peak; 1e-9 leaves margin.
-    expect(errorOverPeak(acc.finish().densityPerHz, scipyPsd)).toBeLessThan(1e-9);
+    // scipy in float64, ours with float32 transforms (dsp/fastFft.ts): a power's relative error
+    // about 2·2^−24·√(log2 N) ≈ 4e-7 at N = 4096, so of the peak at most that; 1e-5 leaves margin
+    // and still fails on any error of window, scaling or bin order.
+    expect(errorOverPeak(acc.finish().densityPerHz, scipyPsd)).toBeLessThan(1e-5);
   });
 });

@@ -3,6 +3,7 @@ import {
   fastFft, fftImplementation, fftPlan, HealthAccumulator, pffftAvailable, sampleStore, setFftImplementation, slotsToNatural,
   transformInPlace, type FftImplementation,
 } from "../../src/dsp/index.js";
+import { decodeSamples } from "../../src/capture/sampleFormat.js";
 import { SeededRandom } from "../../src/scenario/index.js";
 
 /**
@@ -260,5 +261,30 @@ describe("the moments kernel (health figures from samples in the engine's memory
     let c = 0;
     for (let i = 20; i < x.length; i += 2) c += ((x[i] as number) - mi) * ((x[i + 1] as number) - mq);
     expect(a.sumIQ).toBeCloseTo(c, 9);
+  });
+});
+
+describe("the scrub kernel (float samples decoded into the engine's memory)", () => {
+  it.skipIf(!pffftAvailable())("zeroes and counts the same non-finite samples and clipped components as the plain decoder", () => {
+    // cf32 bytes with NaN, ±∞, components at ±1 and beyond, in an odd number of samples.
+    const n = 1001;
+    const values = randomFrame(n, 71).map((v) => 0.15 * v); // |x| < 1 unless set below (6.7σ)
+    const special: Array<[number, number]> = [[3, NaN], [10, Infinity], [11, -Infinity], [40, 1], [41, -1.5], [500, 2], [2001, NaN], [2000, 1]];
+    for (const [i, v] of special) values[i] = v;
+    const bytes = new Uint8Array(values.buffer.slice(0));
+    const plain = new Float32Array(2 * n);
+    const a = decodeSamples("cf32_le", bytes, plain, false);
+    const previous = fftImplementation().implementation;
+    setFftImplementation("pffft-simd");
+    const store = sampleStore(2 * n);
+    setFftImplementation(previous);
+    const b = decodeSamples("cf32_le", bytes, store.view(), false);
+    // Counted by hand from the list above: samples 1 (component 3), 5 (components 10 and 11)
+    // and 1000 (2001) are non-finite; components 40, 41 and 500 are clipped, 2000 is not counted
+    // (it belongs to sample 1000, zeroed).
+    expect(a.nonFiniteSamples).toBe(3);
+    expect(a.clippedComponents).toBe(3);
+    expect(b).toEqual(a);
+    expect(Array.from(store.view())).toEqual(Array.from(plain));
   });
 });
