@@ -93,8 +93,12 @@ export interface FastFft {
    * max[base + j] = max(max[base + j], p). Slot j is natural bin layout.slotBin[j].
    */
   addPower(sum: DoubleStore, max: DoubleStore | null, base: number): void;
+  /** As `addPower`, into float32 stores (the spectrogram's rows: half the memory). */
+  addPowerFloat(sum: FloatStore, max: FloatStore | null, base: number): void;
   /** A store of `length` zeroed doubles for `addPower`. */
   createStore(length: number): DoubleStore;
+  /** A store of `length` zeroed floats for `addPowerFloat`. */
+  createFloatStore(length: number): FloatStore;
   /** The window w (length L ≤ N) prepared for `loadWindowed`. */
   prepareWindow(w: Float64Array): FrameWindow;
   /**
@@ -286,8 +290,18 @@ export class PffftFft implements FastFft {
     this.kernels.power(this.spectrumPointer, sum.pointer + 8 * base, max === null ? 0 : max.pointer + 8 * base, this.size);
   }
 
+  addPowerFloat(sum: FloatStore, max: FloatStore | null, base: number): void {
+    if (!(sum instanceof PffftFloats) || (max !== null && !(max instanceof PffftFloats))) throw new RangeError("addPowerFloat needs stores made by this engine (createFloatStore)");
+    if (base < 0 || base + this.size > sum.length || (max !== null && base + this.size > max.length)) throw new RangeError(`addPowerFloat at ${base}: outside the store`);
+    this.kernels.power32(this.spectrumPointer, sum.pointer + 4 * base, max === null ? 0 : max.pointer + 4 * base, this.size);
+  }
+
   createStore(length: number): DoubleStore {
     return new PffftDoubles(this.module, length);
+  }
+
+  createFloatStore(length: number): FloatStore {
+    return new PffftFloats(this.module, length);
   }
 
   prepareWindow(w: Float64Array): FrameWindow {
@@ -467,9 +481,27 @@ export class FftJsFft implements FastFft {
     }
   }
 
+  addPowerFloat(sum: FloatStore, max: FloatStore | null, base: number): void {
+    const x = this.spectrumBuffer;
+    const n = this.size;
+    const total = sum.view();
+    const top = max === null ? null : max.view();
+    for (let k = 0, b = base; k < n; k++, b++) {
+      const re = x[2 * k] as number;
+      const im = x[2 * k + 1] as number;
+      const p = Math.fround(re * re + im * im);
+      total[b] = (total[b] as number) + p;
+      if (top !== null && p > (top[b] as number)) top[b] = p;
+    }
+  }
+
   createStore(length: number): DoubleStore {
     const values = new Float64Array(length);
     return { length, view: () => values };
+  }
+
+  createFloatStore(length: number): FloatStore {
+    return plainFloatStore(length);
   }
 
   prepareWindow(w: Float64Array): FrameWindow {
@@ -508,13 +540,13 @@ export function plainFloatStore(length: number): FloatStore {
  * values[base + j] of slot order → natural order: out[k] = values[base + j] for slotBin[j] = k,
  * for the N slots from `base`, written at out[outBase + k].
  */
-export function slotsToNatural(layout: SpectrumLayout, values: Float64Array, base: number, out: Float64Array, outBase: number): void {
+export function slotsToNatural(layout: SpectrumLayout, values: Float64Array | Float32Array, base: number, out: Float64Array | Float32Array, outBase: number): void {
   const slotBin = layout.slotBin;
   for (let j = 0; j < slotBin.length; j++) out[outBase + (slotBin[j] as number)] = values[base + j] as number;
 }
 
 /** The inverse of slotsToNatural: out[outBase + j] = values[base + slotBin[j]]. */
-export function naturalToSlots(layout: SpectrumLayout, values: Float64Array, base: number, out: Float64Array, outBase: number): void {
+export function naturalToSlots(layout: SpectrumLayout, values: Float64Array | Float32Array, base: number, out: Float64Array | Float32Array, outBase: number): void {
   const slotBin = layout.slotBin;
   for (let j = 0; j < slotBin.length; j++) out[outBase + j] = values[base + (slotBin[j] as number)] as number;
 }

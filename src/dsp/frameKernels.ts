@@ -8,6 +8,7 @@ import { FRAME_KERNELS_WASM_BASE64 } from "./frameKernelsWasm.js";
 interface KernelExports {
   window(src: number, win: number, dst: number, count: number): void;
   power(spec: number, sum: number, max: number, count: number): void;
+  power32(spec: number, sum: number, max: number, count: number): void;
   moments(src: number, count: number, out: number): void;
   scrub(src: number, frames: number, out: number): void;
 }
@@ -31,6 +32,11 @@ export class FrameKernels {
   /** Power of `count` slots of a z-domain spectrum into float64 sums (and maxima when max ≠ 0). */
   power(spec: number, sum: number, max: number, count: number): void {
     this.exports.power(spec, sum, max, count);
+  }
+
+  /** As `power`, into float32 sums and maxima. */
+  power32(spec: number, sum: number, max: number, count: number): void {
+    this.exports.power32(spec, sum, max, count);
   }
 
   /** mean I, mean Q, Σ(I−μI)², Σ(Q−μQ)², Σ(I−μI)(Q−μQ) of `count` complex float32 samples, into 5 float64 at `out`. */

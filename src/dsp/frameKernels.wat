@@ -117,4 +117,23 @@
     (if (i32.lt_u (local.get $p) (local.get $end)) (then (call $scrubOne (local.get $p))))
     (i32.store (local.get $out) (global.get $nonFinite))
     (i32.store offset=4 (local.get $out) (global.get $clipped)))
+
+  ;; As "power", with float32 sums and maxima at $sum and $max (the spectrogram's rows).
+  (func (export "power32") (param $spec i32) (param $sum i32) (param $max i32) (param $count i32)
+    (local $end i32) (local $re v128) (local $im v128) (local $p v128)
+    (local.set $end (i32.add (local.get $sum) (i32.shl (local.get $count) (i32.const 2))))
+    (block $done
+      (loop $next
+        (br_if $done (i32.ge_u (local.get $sum) (local.get $end)))
+        (local.set $re (v128.load (local.get $spec)))
+        (local.set $im (v128.load offset=16 (local.get $spec)))
+        (local.set $p (f32x4.add (f32x4.mul (local.get $re) (local.get $re)) (f32x4.mul (local.get $im) (local.get $im))))
+        (v128.store (local.get $sum) (f32x4.add (v128.load (local.get $sum)) (local.get $p)))
+        (if (local.get $max)
+          (then
+            (v128.store (local.get $max) (f32x4.pmax (v128.load (local.get $max)) (local.get $p)))
+            (local.set $max (i32.add (local.get $max) (i32.const 16)))))
+        (local.set $spec (i32.add (local.get $spec) (i32.const 32)))
+        (local.set $sum (i32.add (local.get $sum) (i32.const 16)))
+        (br $next))))
 )

@@ -104,7 +104,7 @@ describe.each(FFT_IMPLEMENTATIONS)("SpectrogramAccumulator on %s", (implementati
     const options = { fftLength: 64, rowCount: 4, totalSamples: 64 * 40, sampleRateHz: 1e5 };
     const other = new SpectrogramAccumulator({ ...options, rowCount: 5 });
     expect(() => new SpectrogramAccumulator(options).merge(other.release())).toThrow(RangeError);
-    const short = { ...new SpectrogramAccumulator(options).release(), powerSum: new Float64Array(10) };
+    const short = { ...new SpectrogramAccumulator(options).release(), powerSum: new Float32Array(10) };
     expect(() => new SpectrogramAccumulator(options).merge(short)).toThrow(RangeError);
   });
 });
