@@ -168,7 +168,11 @@ function wideChannel(a: AnalysedCapture, placement: Placement, licence: Licence)
   let pushed = 0;
   return {
     push: (block) => { pushed += block.length; acc.push(extractor.push(block)); },
-    finish: () => (pushed === 0 ? null : acc.finish()),
+    finish: () => {
+      if (pushed === 0) return null;
+      acc.push(extractor.flush());
+      return acc.finish();
+    },
   };
 }
 

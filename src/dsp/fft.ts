@@ -139,15 +139,19 @@ export function sampleStore(length: number): FloatStore {
 
 /**
  * mean I, mean Q, Σ(I−μI)², Σ(Q−μQ)², Σ(I−μI)(Q−μQ) of complex samples first … n − 1 of `iq`
- * computed by the SIMD kernel when `iq` lies in the PFFFT module's memory; null otherwise (the
+ * computed by the SIMD kernel in one pass on data shifted by its first sample when `iq` lies in the PFFFT module's memory; null otherwise (the
  * caller then computes them itself).
  */
 export function kernelMoments(iq: Float32Array, first: number, n: number): Float64Array | null {
   const context = pffft.context;
   if (context === null || iq.buffer !== context.module.HEAPF32.buffer || n <= first) return null;
-  const out = momentsOut ?? (momentsOut = new PffftDoubles(context.module, 5));
-  context.kernels.moments(iq.byteOffset + 8 * first, n - first, out.pointer);
-  return out.view().slice();
+  const out = momentsOut ?? (momentsOut = new PffftDoubles(context.module, 7));
+  const count = n - first;
+  context.kernels.moments(iq.byteOffset + 8 * first, count, out.pointer);
+  // From the sums about K (shifted data: Chan, Golub & LeVeque 1983): μ = K + Σd/n,
+  // Σ(x − μ)² = Σd² − (Σd)²/n, Σ(I − μI)(Q − μQ) = Σd_I·d_Q − Σd_I·Σd_Q/n.
+  const [kI, kQ, sI, sQ, sII, sQQ, sIQ] = out.view() as unknown as [number, number, number, number, number, number, number];
+  return Float64Array.of(kI + sI / count, kQ + sQ / count, sII - (sI * sI) / count, sQQ - (sQ * sQ) / count, sIQ - (sI * sQ) / count);
 }
 
 let momentsOut: PffftDoubles | null = null;
@@ -160,7 +164,7 @@ let momentsOut: PffftDoubles | null = null;
 export function kernelScrub(iq: Float32Array, frames: number): { clipped: number; nonFinite: number } | null {
   const context = pffft.context;
   if (context === null || iq.buffer !== context.module.HEAPF32.buffer || 2 * frames > iq.length) return null;
-  const out = momentsOut ?? (momentsOut = new PffftDoubles(context.module, 5));
+  const out = momentsOut ?? (momentsOut = new PffftDoubles(context.module, 7));
   context.kernels.scrub(iq.byteOffset, frames, out.pointer);
   const counts = new Int32Array(context.module.HEAPF32.buffer, out.pointer, 2);
   return { nonFinite: counts[0] as number, clipped: counts[1] as number };

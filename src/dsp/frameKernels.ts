@@ -39,7 +39,7 @@ export class FrameKernels {
     this.exports.power32(spec, sum, max, count);
   }
 
-  /** mean I, mean Q, Σ(I−μI)², Σ(Q−μQ)², Σ(I−μI)(Q−μQ) of `count` complex float32 samples, into 5 float64 at `out`. */
+  /** Shifted sums of `count` (≥ 1) complex float32 samples into 7 float64 at `out`: K_I, K_Q, Σd_I, Σd_Q, Σd_I², Σd_Q², Σd_I·d_Q, d = x − K, K the first sample (frameKernels.wat). */
   moments(src: number, count: number, out: number): void {
     this.exports.moments(src, count, out);
   }

@@ -49,37 +49,49 @@
         (local.set $sum (i32.add (local.get $sum) (i32.const 32)))
         (br $next))))
 
-  ;; Moments of $count interleaved complex samples at $src (float32), into 5 float64 at $out:
-  ;; mean I, mean Q, Σ(I − μI)², Σ(Q − μQ)², Σ(I − μI)(Q − μQ), in two passes (the mean first),
-  ;; each sample's (I, Q) one float64x2 lane pair.
+;; Moments of $count interleaved complex samples at $src (float32), in one pass on the data
+  ;; shifted by its first sample K (the "shifted data" algorithm: Chan, Golub & LeVeque 1983,
+  ;; "Algorithms for computing the sample variance: analysis and recommendations", Am. Stat.
+  ;; 37(3)): with d = x − K, into 7 float64 at $out: K_I, K_Q, Σd_I, Σd_Q, Σd_I², Σd_Q², Σd_I·d_Q
+  ;; (the caller forms the mean and the centred sums). Each sample's (I, Q) is one float64x2,
+  ;; two samples a step.
   (func (export "moments") (param $src i32) (param $count i32) (param $out i32)
-    (local $p i32) (local $end i32) (local $s v128) (local $m v128) (local $d v128) (local $sq v128) (local $cross v128)
-    (local.set $end (i32.add (local.get $src) (i32.shl (local.get $count) (i32.const 3))))
+    (local $p i32) (local $end i32) (local $k v128) (local $v v128) (local $a v128) (local $b v128)
+    (local $s v128) (local $sq v128) (local $cross v128)
+    (local.set $k (f64x2.promote_low_f32x4 (v128.load64_zero align=4 (local.get $src))))
     (local.set $s (f64x2.splat (f64.const 0)))
-    (local.set $p (local.get $src))
-    (block $done
-      (loop $next
-        (br_if $done (i32.ge_u (local.get $p) (local.get $end)))
-        (local.set $s (f64x2.add (local.get $s) (f64x2.promote_low_f32x4 (v128.load64_zero align=4 (local.get $p)))))
-        (local.set $p (i32.add (local.get $p) (i32.const 8)))
-        (br $next)))
-    (local.set $m (f64x2.div (local.get $s) (f64x2.splat (f64.convert_i32_u (local.get $count)))))
     (local.set $sq (f64x2.splat (f64.const 0)))
     (local.set $cross (f64x2.splat (f64.const 0)))
     (local.set $p (local.get $src))
-    (block $done2
-      (loop $next2
-        (br_if $done2 (i32.ge_u (local.get $p) (local.get $end)))
-        (local.set $d (f64x2.sub (f64x2.promote_low_f32x4 (v128.load64_zero align=4 (local.get $p))) (local.get $m)))
-        (local.set $sq (f64x2.add (local.get $sq) (f64x2.mul (local.get $d) (local.get $d))))
-        (local.set $cross (f64x2.add (local.get $cross) (f64x2.mul (local.get $d)
-          (i8x16.shuffle 8 9 10 11 12 13 14 15 0 1 2 3 4 5 6 7 (local.get $d) (local.get $d)))))
-        (local.set $p (i32.add (local.get $p) (i32.const 8)))
-        (br $next2)))
-    (v128.store align=8 (local.get $out) (local.get $m))
-    (v128.store offset=16 align=8 (local.get $out) (local.get $sq))
-    (f64.store offset=32 (local.get $out) (f64x2.extract_lane 0 (local.get $cross))))
-;; Scrub of $frames complex float32 samples at $p, in place: a sample with a NaN or infinite
+    (local.set $end (i32.add (local.get $src) (i32.shl (i32.and (local.get $count) (i32.const -2)) (i32.const 3))))
+    (block $done
+      (loop $next
+        (br_if $done (i32.ge_u (local.get $p) (local.get $end)))
+        (local.set $v (v128.load align=4 (local.get $p)))
+        (local.set $a (f64x2.sub (f64x2.promote_low_f32x4 (local.get $v)) (local.get $k)))
+        (local.set $b (f64x2.sub (f64x2.promote_low_f32x4
+          (i8x16.shuffle 8 9 10 11 12 13 14 15 0 1 2 3 4 5 6 7 (local.get $v) (local.get $v))) (local.get $k)))
+        (local.set $s (f64x2.add (local.get $s) (f64x2.add (local.get $a) (local.get $b))))
+        (local.set $sq (f64x2.add (local.get $sq)
+          (f64x2.add (f64x2.mul (local.get $a) (local.get $a)) (f64x2.mul (local.get $b) (local.get $b)))))
+        (local.set $cross (f64x2.add (local.get $cross) (f64x2.add
+          (f64x2.mul (local.get $a) (i8x16.shuffle 8 9 10 11 12 13 14 15 0 1 2 3 4 5 6 7 (local.get $a) (local.get $a)))
+          (f64x2.mul (local.get $b) (i8x16.shuffle 8 9 10 11 12 13 14 15 0 1 2 3 4 5 6 7 (local.get $b) (local.get $b))))))
+        (local.set $p (i32.add (local.get $p) (i32.const 16)))
+        (br $next)))
+    (if (i32.and (local.get $count) (i32.const 1))
+      (then
+        (local.set $a (f64x2.sub (f64x2.promote_low_f32x4 (v128.load64_zero align=4 (local.get $p))) (local.get $k)))
+        (local.set $s (f64x2.add (local.get $s) (local.get $a)))
+        (local.set $sq (f64x2.add (local.get $sq) (f64x2.mul (local.get $a) (local.get $a))))
+        (local.set $cross (f64x2.add (local.get $cross)
+          (f64x2.mul (local.get $a) (i8x16.shuffle 8 9 10 11 12 13 14 15 0 1 2 3 4 5 6 7 (local.get $a) (local.get $a)))))))
+    (v128.store align=8 (local.get $out) (local.get $k))
+    (v128.store offset=16 align=8 (local.get $out) (local.get $s))
+    (v128.store offset=32 align=8 (local.get $out) (local.get $sq))
+    (f64.store offset=48 (local.get $out) (f64x2.extract_lane 0 (local.get $cross))))
+
+  ;; Scrub of $frames complex float32 samples at $p, in place: a sample with a NaN or infinite
   ;; component becomes 0 + 0j and is counted; components with |x| ≥ 1 are counted as clipped.
   ;; The two counts go to $out as two i32 (non-finite samples, clipped components). Two samples
   ;; a vector: when all four |x| < 1 (false for NaN) nothing else is looked at.

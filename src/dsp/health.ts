@@ -105,8 +105,8 @@ export class HealthAccumulator {
 
 /**
  * Mean and centred sums of complex samples first..n−1 of `iq`, in two passes: by the SIMD
- * kernel when `iq` lies in the fast engine's memory (fft.ts, kernelMoments: the same sums in the
- * same order), else here.
+ * kernel when `iq` lies in the fast engine's memory (fft.ts, kernelMoments: one pass on the data
+ * shifted by its first sample, equal to these to rounding), else here.
  */
 function blockMoments(iq: Float32Array, first: number, n: number): HealthState {
   const m = kernelMoments(iq, first, n);

@@ -247,7 +247,8 @@ describe("the moments kernel (health figures from samples in the engine's memory
     inHeap.push(store.view(), 0, 10);
     const plain = new HealthAccumulator();
     plain.push(x, 0, 10);
-    // The same sums in the same order, each sample promoted to double: equal to rounding.
+    // One pass on data shifted by the first sample (Chan, Golub & LeVeque 1983) against two
+    // passes: both in double from the same float32 samples, equal to rounding (1e-9 absolute).
     const a = inHeap.snapshot();
     const b = plain.snapshot();
     expect(a.samples).toBe(4990);
@@ -261,6 +262,12 @@ describe("the moments kernel (health figures from samples in the engine's memory
     let c = 0;
     for (let i = 20; i < x.length; i += 2) c += ((x[i] as number) - mi) * ((x[i + 1] as number) - mq);
     expect(a.sumIQ).toBeCloseTo(c, 9);
+    // An odd count takes the kernel's last single-sample step.
+    const odd = new HealthAccumulator();
+    odd.push(store.view(), 0, 11);
+    const oddPlain = new HealthAccumulator();
+    oddPlain.push(x, 0, 11);
+    for (const k of ["meanI", "meanQ", "sumSqI", "sumSqQ", "sumIQ"] as const) expect(odd.snapshot()[k]).toBeCloseTo(oddPlain.snapshot()[k], 9);
   });
 });
 
