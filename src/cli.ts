@@ -6,6 +6,7 @@
  */
 import { Command, CommanderError, Option } from "commander";
 import { isIqauditError, UsageError } from "./errors.js";
+import { fftImplementation } from "./dsp/index.js";
 import { TOOL_VERSION } from "./version.js";
 import { addCaptureOptions, captureArgs, type RawCaptureFlags } from "./cli/captureOptions.js";
 import { parseCount, parseFftLength, parseQuantity } from "./cli/quantity.js";
@@ -503,6 +504,11 @@ export async function main(argv: readonly string[]): Promise<number> {
     for (const sub of c.commands) quietly(sub);
   };
   quietly(cli);
+  const fftProblem = fftImplementation().problem;
+  if (fftProblem !== null) {
+    process.stderr.write(`${oneLine(`iqaudit: ${fftProblem}`)}\n`);
+    return 2;
+  }
   try {
     ranExitCode = 0;
     await cli.parseAsync(argv as string[], { from: "node" });

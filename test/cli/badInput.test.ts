@@ -111,3 +111,18 @@ describe("awkward but readable input", () => {
     expect(JSON.parse(r.stdout).capture.samples).toBe(8192);
   });
 });
+
+describe("a bad FFT engine setting (docs/architecture.md, FFT engines)", () => {
+  it("IQAUDIT_FFT with an unknown value stops before any work: exit 2, one line naming the setting", () => {
+    const good = file("fftsetting_1Msps.cf32", encodeSamples("cf32_le", tone(4096)));
+    const r = runCli(["inspect", good], undefined, { env: { IQAUDIT_FFT: "fastest" } });
+    expect(expectOneErrorLine(r)).toContain("IQAUDIT_FFT=fastest");
+  });
+
+  it("IQAUDIT_FFT=fftjs runs on the fallback", () => {
+    const good = file("fftjs_1Msps.cf32", encodeSamples("cf32_le", tone(4096)));
+    const r = runCli(["inspect", good, "--json"], undefined, { env: { IQAUDIT_FFT: "fftjs" } });
+    expect(r.status).toBe(0);
+    expect(JSON.parse(r.stdout).capture.samples).toBe(4096);
+  });
+});
