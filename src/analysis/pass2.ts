@@ -1,7 +1,7 @@
 /**
  * Pass 2: one emission out of the capture. Streams the analysed span through a channel
- * extractor (to baseband and a rate that suits the emission's bandwidth: an FFT filter-bank
- * front stage and polyphase stages, dsp/channelExtractor.ts), so that everything measured after it costs in proportion to the emission, not the
+ * extractor (NCO to baseband, then polyphase decimation to a rate that suits the emission's
+ * bandwidth), so that everything measured after it costs in proportion to the emission, not the
  * capture rate. The decimated channel is kept for the measurements, up to `maxSamples` (a fixed
  * bound on memory: 2^20 samples = 8 MiB by default, and the measurements after it allocate a
  * few times that); a longer span is measured over its first
@@ -81,7 +81,10 @@ export async function runPass2(source: CaptureSource, span: SampleSpan, options:
   let skipped = 0;
   let read = 0;
   const blockSamples = options.blockSamples ?? PASS2_DEFAULTS.blockSamples;
-  const take = (y: Float32Array): void => {
+  for await (const block of source.blocks({ startSample: span.startSample, sampleCount: inputNeeded }, blockSamples, { reuse: true })) {
+    read += block.length / 2;
+    options.onInputBlock?.(block);
+    const y = extractor.push(block);
     whole?.push(y);
     let from = 0;
     const n = y.length / 2;
@@ -90,21 +93,14 @@ export async function runPass2(source: CaptureSource, span: SampleSpan, options:
       skipped += s;
       from = s;
     }
-    const count = Math.min(n - from, keep - kept);
-    if (count > 0) {
-      out.set(y.subarray(2 * from, 2 * (from + count)), 2 * kept);
-      kept += count;
+    const take = Math.min(n - from, keep - kept);
+    if (take > 0) {
+      out.set(y.subarray(2 * from, 2 * (from + take)), 2 * kept);
+      kept += take;
     }
-  };
-  for await (const block of source.blocks({ startSample: span.startSample, sampleCount: inputNeeded }, blockSamples, { reuse: true })) {
-    read += block.length / 2;
-    options.onInputBlock?.(block);
-    take(extractor.push(block));
     options.onProgress?.(read, inputNeeded);
     if (kept >= keep && whole === null && options.onInputBlock === undefined) break;
   }
-  // The extractor's FFT front stage hands its outputs on a block late: the rest, at the end.
-  if (kept < keep || whole !== null) take(extractor.flush());
   const warnings: string[] = [];
   const complete = expected <= maxSamples;
   const wholeSpan = whole === null ? null : whole.finish();

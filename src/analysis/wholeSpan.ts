@@ -1,6 +1,6 @@
 /**
  * Whole-span figures of one channel for a licence check, where the worst moment decides: the
- * analysed span is read once through the channel extractor (FFT front stage, polyphase decimation), block
+ * analysed span is read once through the channel extractor (NCO, polyphase decimation), block
  * by block, and every channel sample goes through accumulators that keep no record:
  *
  * - carrier: the power-weighted mean instantaneous frequency, f_c = arg(Σ x[n]·conj(x[n−1]))·fs/2π
@@ -153,7 +153,6 @@ export async function wholeSpanFigures(source: CaptureSource, span: SampleSpan, 
     acc.push(extractor.push(block));
     options.onProgress?.(read, span.sampleCount);
   }
-  acc.push(extractor.flush());
   return acc.finish();
 }
 

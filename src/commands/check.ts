@@ -168,11 +168,7 @@ function wideChannel(a: AnalysedCapture, placement: Placement, licence: Licence)
   let pushed = 0;
   return {
     push: (block) => { pushed += block.length; acc.push(extractor.push(block)); },
-    finish: () => {
-      if (pushed === 0) return null;
-      acc.push(extractor.flush());
-      return acc.finish();
-    },
+    finish: () => (pushed === 0 ? null : acc.finish()),
   };
 }
 

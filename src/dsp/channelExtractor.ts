@@ -13,21 +13,11 @@
  * §5.3, the multistage decimator's stage edges). Each stage has the full stopband attenuation
  * A (default 80 dB); the passband ripples add, at most about ±(stages)·10^(−A/20).
  *
- * FFT front stage: when D is even, its largest power-of-two factor 2^a is taken first by the
- * fast-convolution filter bank (MultiChannelizer, one channel: the mixing to 0 Hz, a low-pass
- * with passband [0, fp] and decimation by 2^a as FFT overlap-save in the fast engine, fastFft.ts),
- * and the stages above decimate the rest, D/2^a, from rate fs/2^a, with the same edges. The
- * bank keeps only the bins within ±fs/2^(a+1) (no aliasing at all) and is flat to ±δ over the
- * passband, so the chain keeps its promises: passband ripples add one δ more, the stopband
- * beyond fst keeps A, and the output rate is the same fs/D. The bank hands its outputs on a
- * block late: `flush` at the end of the stream gives the rest.
- *
  * Response of the whole chain (used by the tests): a tone at offsetHz + δ with |δ| ≤ fp leaves at
  * δ with gain ∏ Hi(δ) ≈ 1; a tone with |δ| ≥ fst is attenuated by at least A dB before it reaches
  * the output. White noise of density N0 (FS²/Hz) leaves with the same density over the passband.
  */
 import { designLowpass } from "./firDesign.js";
-import { MultiChannelizer } from "./multiChannelizer.js";
 import { Nco } from "./nco.js";
 import { PolyphaseDecimator } from "./polyphaseDecimator.js";
 
@@ -69,14 +59,11 @@ export class ChannelExtractor {
   readonly stopbandEdgeHz: number;
   /** Delay of the filters, s: Σ (Li − 1)/2 / (input rate of stage i). */
   readonly delayS: number;
-  /** Decimation of the FFT front stage (the largest power of two dividing D; 1: no front stage). */
-  readonly frontDecimation: number;
-  /** The factor of each polyphase stage after the front, in order. */
+  /** The factor of each stage, in order. */
   readonly stageFactors: readonly number[];
-  /** The tap count of each polyphase stage, in order. */
+  /** The tap count of each stage, in order. */
   readonly stageTapCounts: readonly number[];
   private readonly nco: Nco;
-  private readonly front: MultiChannelizer | null;
   private readonly stages: readonly PolyphaseDecimator[];
 
   /** Throws RangeError for a non-positive rate or bandwidth, a bandwidth above the rate, or a non-finite offset. */
@@ -92,25 +79,12 @@ export class ChannelExtractor {
       throw new RangeError(`stopbandDb ${stopbandDb} is not a positive finite number`);
     }
     const D = largestSmoothAtMost(Math.floor(fs / (MIN_RATE_OVER_BANDWIDTH * B)));
-    const frontD = D & -D;
-    const factors = splitFactor(D / frontD);
+    const factors = splitFactor(D);
     const fp = B / 2;
     const fst = fs / D - fp;
     const stages: PolyphaseDecimator[] = [];
     let rateHz = fs;
     let delayS = 0;
-    this.front = null;
-    if (frontD > 1) {
-      // Later stages copy their input at once, so the bank may hand out views of its own array.
-      this.front = new MultiChannelizer({
-        sampleRateHz: fs, channels: [{ offsetHz, bandwidthHz: B }], stopbandDb, maxDecimation: frontD,
-        reuseOutput: factors.length > 0 || options.reuseOutput === true,
-      });
-      const info = this.front.channels[0];
-      if (info === undefined || info.decimation !== frontD) throw new RangeError(`the front stage decimates by ${info?.decimation}, not ${frontD}`);
-      delayS += info.delayS;
-      rateHz = info.outputRateHz;
-    }
     factors.forEach((f, i) => {
       const outRateHz = rateHz / f;
       const stopHz = i === factors.length - 1 ? fst : outRateHz - fst;
@@ -121,7 +95,7 @@ export class ChannelExtractor {
       stages.push(stage);
       rateHz = outRateHz;
     });
-    if (factors.length === 0 && frontD === 1 && fp < 0.45 * fs) {
+    if (factors.length === 0 && fp < 0.45 * fs) {
       // No decimation: still low-pass to the channel, stopband from fs/2 on.
       const taps = designLowpass({ cutoffHz: fp, transitionHz: fs / 2 - fp, stopbandDb, sampleRateHz: fs });
       const stage = new PolyphaseDecimator(taps, 1, options.reuseOutput === true);
@@ -131,8 +105,7 @@ export class ChannelExtractor {
     this.decimation = D;
     this.outputRateHz = fs / D;
     this.passbandHz = fp;
-    this.frontDecimation = frontD;
-    this.stopbandEdgeHz = factors.length > 0 ? fst : this.front !== null ? (this.front.channels[0] as { stopbandEdgeHz: number }).stopbandEdgeHz : fs / 2;
+    this.stopbandEdgeHz = factors.length === 0 ? fs / 2 : fst;
     this.delayS = delayS;
     this.stageFactors = factors;
     this.stageTapCounts = stages.map((s) => s.tapCount);
@@ -147,29 +120,12 @@ export class ChannelExtractor {
    */
   push(iq: Float32Array): Float32Array {
     if (iq.length % 2 !== 0) throw new RangeError(`iq length ${iq.length} is not even (interleaved I,Q)`);
-    if (this.front !== null) return this.throughStages(this.front.push(iq)[0] as Float32Array);
     const first = this.stages[0];
     if (first === undefined) return this.nco.mix(iq);
     // The mixer writes straight into the first stage's buffer: one pass over the input.
     this.nco.mix(iq, first.beginBlock(iq.length / 2));
     let y = first.endBlock();
     for (let i = 1; i < this.stages.length; i++) y = (this.stages[i] as PolyphaseDecimator).push(y);
-    return y;
-  }
-
-  /**
-   * The end of the stream: the channel samples the FFT front stage still holds (it hands its
-   * outputs on a block late), as `push` returns them; an empty array without a front stage.
-   * Nothing may be pushed after it.
-   */
-  flush(): Float32Array {
-    if (this.front === null) return new Float32Array(0);
-    return this.throughStages(this.front.flush()[0] as Float32Array);
-  }
-
-  private throughStages(x: Float32Array): Float32Array {
-    let y = x;
-    for (const stage of this.stages) y = stage.push(y);
     return y;
   }
 }

@@ -99,8 +99,6 @@ export interface MultiChannelizerOptions {
    * (so the parts can run in parallel).
    */
   readonly resumeAt?: number;
-  /** Largest decimation a channel may get, a power of two (default and most: MAX_DECIMATION). */
-  readonly maxDecimation?: number;
 }
 
 /** Defaults of MultiChannelizerOptions. */
@@ -199,9 +197,7 @@ export class MultiChannelizer {
     if (!(Number.isFinite(fs) && fs > 0)) throw new RangeError(`sampleRateHz ${fs} is not a positive finite number`);
     if (!(Number.isFinite(stopbandDb) && stopbandDb > 0)) throw new RangeError(`stopbandDb ${stopbandDb} is not a positive finite number`);
     if (options.channels.length === 0) throw new RangeError("channels is empty: give at least one");
-    const maxAllowed = options.maxDecimation ?? MAX_DECIMATION;
-    if (!(Number.isInteger(maxAllowed) && maxAllowed >= 1 && maxAllowed <= MAX_DECIMATION && (maxAllowed & (maxAllowed - 1)) === 0)) throw new RangeError(`maxDecimation ${maxAllowed} is not a power of two in [1, ${MAX_DECIMATION}]`);
-    const designs = options.channels.map((c, i) => designChannel(c, i, fs, stopbandDb, maxAllowed));
+    const designs = options.channels.map((c, i) => designChannel(c, i, fs, stopbandDb));
     const maxD = Math.max(...designs.map((d) => d.info.decimation));
     const longest = Math.max(...designs.map((d) => d.taps.length));
     const needed = Math.max(MIN_FFT_SIZE, nextPowerOfTwo(4 * (longest - 1)), MIN_KEPT_BINS * maxD);
@@ -298,14 +294,14 @@ export class MultiChannelizer {
 }
 
 /** Rate, edges and taps of one channel (see the file comment). */
-function designChannel(c: ChannelSpec, index: number, fs: number, stopbandDb: number, maxDecimation: number): { info: ChannelInfo; taps: Float64Array } {
+function designChannel(c: ChannelSpec, index: number, fs: number, stopbandDb: number): { info: ChannelInfo; taps: Float64Array } {
   const { offsetHz, bandwidthHz: B } = c;
   if (!Number.isFinite(offsetHz)) throw new RangeError(`channels[${index}].offsetHz ${offsetHz} is not finite`);
   if (!(Number.isFinite(B) && B > 0 && B <= fs / MIN_CHANNEL_RATE_OVER_BANDWIDTH)) {
     throw new RangeError(`channels[${index}].bandwidthHz ${B} is not in (0, sampleRateHz/${MIN_CHANNEL_RATE_OVER_BANDWIDTH} = ${fs / MIN_CHANNEL_RATE_OVER_BANDWIDTH}]`);
   }
   let D = 1;
-  while (2 * D <= maxDecimation && fs / (2 * D) >= MIN_CHANNEL_RATE_OVER_BANDWIDTH * B) D *= 2;
+  while (2 * D <= MAX_DECIMATION && fs / (2 * D) >= MIN_CHANNEL_RATE_OVER_BANDWIDTH * B) D *= 2;
   const Fo = fs / D;
   const fp = B / 2;
   const fst = Fo / 2 - Fo / (2 * MIN_KEPT_BINS);

@@ -152,29 +152,3 @@ describe("ChannelExtractor({ sampleRateHz: 2.4e6, offsetHz: 317e3, bandwidthHz: 
     expect(() => new ChannelExtractor({ sampleRateHz: 1e6, offsetHz: Number.NaN, bandwidthHz: 1e3 })).toThrow(/offsetHz NaN/);
   });
 });
-
-describe("ChannelExtractor's FFT front stage", () => {
-  it("takes D's power-of-two factor first, and with flush gives all ⌈T/D⌉ outputs, the last ones as exact as the rest (closed form of a tone)", () => {
-    // 2.4 MS/s, 25 kHz: D = 36 (the largest 7-smooth ≤ 2.4e6/62 500 = 38.4) = 4 (front) · 9.
-    const fs = 2_400_000;
-    const ex = new ChannelExtractor({ sampleRateHz: fs, offsetHz: 300_000, bandwidthHz: 25_000 });
-    expect(ex.decimation).toBe(36);
-    expect(ex.frontDecimation).toBe(4);
-    const T = 200_001;
-    const x = complexTone(T, 0.5, 300_000 + 3_000, fs, 0.3);
-    const parts: number[] = [];
-    for (const [a, b] of randomPartition(T, 20_000, 5)) parts.push(...ex.push(x.subarray(2 * a, 2 * b)));
-    parts.push(...ex.flush());
-    const y = Float32Array.from(parts);
-    expect(y.length / 2).toBe(Math.ceil(T / 36));
-    // Output m is the tone at 3 kHz, delayed by the filters: 0.5·e^(j(2π·3000·(m/fsOut − delay) + 0.3)),
-    // within the passband ripple (3 stages: ±5·10^(−80/20) = 5e-4) and float32 rounding; the last
-    // outputs (those the flush gave) included.
-    const fsOut = ex.outputRateHz;
-    const first = Math.ceil(ex.delayS * fsOut * 2) + 2;
-    for (let m = first; m < y.length / 2; m++) {
-      const a = 2 * Math.PI * 3000 * (m / fsOut - ex.delayS) + 0.3;
-      expect(Math.hypot((y[2 * m] as number) - 0.5 * Math.cos(a), (y[2 * m + 1] as number) - 0.5 * Math.sin(a))).toBeLessThan(0.5 * 6e-4);
-    }
-  });
-});

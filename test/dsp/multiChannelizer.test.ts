@@ -185,11 +185,9 @@ describe("MultiChannelizer against the single-channel ChannelExtractor (NCO and 
       const [ar, ai] = amplitudeAt(y, deltaHz, c.outputRateHz, c.delayS, settled(c));
       const [br, bi] = amplitudeAt(z, deltaHz, ex.outputRateHz, ex.delayS, Math.ceil(ex.delayS * ex.outputRateHz) + 2);
       // Both are linear-phase: each gives 0.5·e^(j0.3)·|H(δ)|. Ours within ±δ of 1; the extractor's
-      // FFT front stage (D = 36 = 4·9: a bank decimating by 4, ±δ) and two stages (3·3) each within
-      // ±2δ (firDesign): 5δ, so 6δ between the two, 1e-5 for float32 rounding.
-      expect(ex.frontDecimation).toBe(4);
-      expect(ex.stageFactors).toEqual([3, 3]);
-      expect(Math.hypot(ar - br, ai - bi) / 0.5).toBeLessThan(6 * DELTA + 1e-5);
+      // two stages (6·6) each within ±2δ (firDesign): 5δ together, 1e-5 for float32 rounding.
+      expect(ex.stageFactors.length).toBe(2);
+      expect(Math.hypot(ar - br, ai - bi) / 0.5).toBeLessThan(5 * DELTA + 1e-5);
       expect(Math.hypot(ar - 0.5 * Math.cos(0.3), ai - 0.5 * Math.sin(0.3)) / 0.5).toBeLessThan(DELTA + 1e-5);
     });
   }
