@@ -468,31 +468,11 @@ export class FftJsFft implements FastFft {
   }
 
   addPower(sum: DoubleStore, max: DoubleStore | null, base: number): void {
-    const x = this.spectrumBuffer;
-    const n = this.size;
-    const total = sum.view();
-    const top = max === null ? null : max.view();
-    for (let k = 0, b = base; k < n; k++, b++) {
-      const re = x[2 * k] as number;
-      const im = x[2 * k + 1] as number;
-      const p = re * re + im * im;
-      total[b] = (total[b] as number) + p;
-      if (top !== null && p > (top[b] as number)) top[b] = p;
-    }
+    addPowerNatural(this.spectrumBuffer, sum.view(), max === null ? null : max.view(), base);
   }
 
   addPowerFloat(sum: FloatStore, max: FloatStore | null, base: number): void {
-    const x = this.spectrumBuffer;
-    const n = this.size;
-    const total = sum.view();
-    const top = max === null ? null : max.view();
-    for (let k = 0, b = base; k < n; k++, b++) {
-      const re = x[2 * k] as number;
-      const im = x[2 * k + 1] as number;
-      const p = Math.fround(re * re + im * im);
-      total[b] = (total[b] as number) + p;
-      if (top !== null && p > (top[b] as number)) top[b] = p;
-    }
+    addPowerNatural(this.spectrumBuffer, sum.view(), max === null ? null : max.view(), base);
   }
 
   createStore(length: number): DoubleStore {
@@ -519,6 +499,21 @@ export class FftJsFft implements FastFft {
       t[2 * i] = c * (iq[j] as number);
       t[2 * i + 1] = c * (iq[j + 1] as number);
     }
+  }
+}
+
+/**
+ * For the N natural-order bins of `x`: p = re² + im², total[base + k] += p and, with `top`,
+ * top[base + k] = max(top[base + k], p) (stored at the arrays' precision).
+ */
+function addPowerNatural(x: Float32Array, total: Float64Array | Float32Array, top: Float64Array | Float32Array | null, base: number): void {
+  const n = x.length >> 1;
+  for (let k = 0, b = base; k < n; k++, b++) {
+    const re = x[2 * k] as number;
+    const im = x[2 * k + 1] as number;
+    const p = re * re + im * im;
+    total[b] = (total[b] as number) + p;
+    if (top !== null && p > (top[b] as number)) top[b] = p;
   }
 }
 
