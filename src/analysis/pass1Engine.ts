@@ -96,15 +96,6 @@ export class Pass1Engine {
     };
   }
 
-  /** The state without copying the spectrogram's rows (SpectrogramAccumulator.release): the engine is done after it. */
-  release(): Pass1EngineState {
-    return {
-      welch: this.welch.snapshot(),
-      spectrogram: this.spectrogram.release(),
-      health: this.health.snapshot(),
-    };
-  }
-
   /** Adds another engine's state (SpectrogramAccumulator.merge puts its rows in slot order one row at a time). */
   merge(state: Pass1EngineState): void {
     this.welch.merge(state.welch);

@@ -18,8 +18,8 @@ port.on("message", (message: WorkerRequest) => {
     const reply: WorkerReply = { type: "done", buffer: message.buffer };
     port.postMessage(reply, [message.buffer]);
   } else if (message.type === "finish") {
-    // The engine is done: its own arrays are handed over (transferred, neither copied nor cloned).
-    const state = engine.release();
+    // The engine is done: its state is copied out of the engine's memory once and transferred.
+    const state = engine.snapshot();
     const reply: WorkerReply = { type: "state", state };
     port.postMessage(reply, stateBuffers(state));
   } else {

@@ -149,39 +149,42 @@ const pffftFree = new FinalizationRegistry<{ module: PffftModule; pointers: numb
   for (const p of pointers) module._pffft_aligned_free(p);
 });
 
-/** `length` doubles in the module's memory (16-byte aligned), zeroed. */
-export class PffftDoubles implements DoubleStore {
-  readonly pointer: number;
-  private cached: Float64Array;
+/** A typed-array kind that can view the module's memory. */
+interface HeapArrayKind<A extends Float32Array | Float64Array> {
+  readonly BYTES_PER_ELEMENT: number;
+  new (buffer: ArrayBufferLike, byteOffset: number, length: number): A;
+}
 
-  constructor(private readonly module: PffftModule, readonly length: number) {
-    this.pointer = allocate(module, 8 * Math.max(length, 1));
+/** `length` values of one kind in the module's memory (16-byte aligned), zeroed; the view taken again after growth. */
+class PffftArray<A extends Float32Array | Float64Array> {
+  readonly pointer: number;
+  private cached: A;
+
+  constructor(private readonly module: PffftModule, readonly length: number, private readonly kind: HeapArrayKind<A>) {
+    this.pointer = allocate(module, kind.BYTES_PER_ELEMENT * Math.max(length, 1));
     pffftFree.register(this, { module, pointers: [this.pointer] });
-    this.cached = new Float64Array(module.HEAPF32.buffer, this.pointer, length);
+    this.cached = new kind(module.HEAPF32.buffer, this.pointer, length);
     this.cached.fill(0);
   }
 
-  view(): Float64Array {
-    if (this.cached.buffer !== this.module.HEAPF32.buffer) this.cached = new Float64Array(this.module.HEAPF32.buffer, this.pointer, this.length);
+  view(): A {
+    const buffer = this.module.HEAPF32.buffer;
+    if (this.cached.buffer !== buffer) this.cached = new this.kind(buffer, this.pointer, this.length);
     return this.cached;
   }
 }
 
-/** `length` float32 values in the module's memory (16-byte aligned), zeroed. */
-export class PffftFloats implements FloatStore {
-  readonly pointer: number;
-  private cached: Float32Array;
-
-  constructor(private readonly module: PffftModule, readonly length: number) {
-    this.pointer = allocate(module, 4 * Math.max(length, 1));
-    pffftFree.register(this, { module, pointers: [this.pointer] });
-    this.cached = module.HEAPF32.subarray(this.pointer >> 2, (this.pointer >> 2) + length);
-    this.cached.fill(0);
+/** `length` doubles in the module's memory. */
+export class PffftDoubles extends PffftArray<Float64Array> implements DoubleStore {
+  constructor(module: PffftModule, length: number) {
+    super(module, length, Float64Array);
   }
+}
 
-  view(): Float32Array {
-    if (this.cached.buffer !== this.module.HEAPF32.buffer) this.cached = this.module.HEAPF32.subarray(this.pointer >> 2, (this.pointer >> 2) + this.length);
-    return this.cached;
+/** `length` float32 values in the module's memory. */
+export class PffftFloats extends PffftArray<Float32Array> implements FloatStore {
+  constructor(module: PffftModule, length: number) {
+    super(module, length, Float32Array);
   }
 }
 

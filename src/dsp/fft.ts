@@ -145,7 +145,7 @@ export function sampleStore(length: number): FloatStore {
 export function kernelMoments(iq: Float32Array, first: number, n: number): Float64Array | null {
   const context = pffft.context;
   if (context === null || iq.buffer !== context.module.HEAPF32.buffer || n <= first) return null;
-  const out = momentsOut ?? (momentsOut = new PffftDoubles(context.module, 7));
+  const out = kernelOut ?? (kernelOut = new PffftDoubles(context.module, 7));
   const count = n - first;
   context.kernels.moments(iq.byteOffset + 8 * first, count, out.pointer);
   // From the sums about K (shifted data: Chan, Golub & LeVeque 1983): μ = K + Σd/n,
@@ -154,7 +154,8 @@ export function kernelMoments(iq: Float32Array, first: number, n: number): Float
   return Float64Array.of(kI + sI / count, kQ + sQ / count, sII - (sI * sI) / count, sQQ - (sQ * sQ) / count, sIQ - (sI * sQ) / count);
 }
 
-let momentsOut: PffftDoubles | null = null;
+/** The kernels' small output (7 doubles), shared: one kernel call at a time in a thread. */
+let kernelOut: PffftDoubles | null = null;
 
 /**
  * The scrub of float samples by the SIMD kernel, when `iq` lies in the PFFFT module's memory:
@@ -164,7 +165,7 @@ let momentsOut: PffftDoubles | null = null;
 export function kernelScrub(iq: Float32Array, frames: number): { clipped: number; nonFinite: number } | null {
   const context = pffft.context;
   if (context === null || iq.buffer !== context.module.HEAPF32.buffer || 2 * frames > iq.length) return null;
-  const out = momentsOut ?? (momentsOut = new PffftDoubles(context.module, 7));
+  const out = kernelOut ?? (kernelOut = new PffftDoubles(context.module, 7));
   context.kernels.scrub(iq.byteOffset, frames, out.pointer);
   const counts = new Int32Array(context.module.HEAPF32.buffer, out.pointer, 2);
   return { nonFinite: counts[0] as number, clipped: counts[1] as number };

@@ -144,22 +144,12 @@ export class SpectrogramAccumulator {
   }
 
   /**
-   * The state, its arrays put in natural order one at a time (R × N doubles more at most, not
-   * 2 × R × N as a snapshot): for an accumulator that is done, whose state is handed over once
-   * (a worker's last message). The accumulator must not be used afterwards.
+   * The state of an accumulator that is done (a worker's last message): the same as `snapshot`.
+   * The rows live in the engine's memory, which is not given back while the process runs, so
+   * there is nothing to hand over without a copy.
    */
   release(): SpectrogramState {
-    const powerSum = this.rows(this.powerSum, slotsToNatural);
-    this.powerSum = plainStore(new Float32Array(0));
-    const state: SpectrogramState = {
-      fftLength: this.fftLength, rowCount: this.rowCount, frameCount: this.frameCount,
-      sampleRateHz: this.sampleRateHz, window: this.window,
-      powerSum, powerMax: this.rows(this.powerMax, slotsToNatural), framesPerRow: this.framesPerRow,
-    };
-    this.powerSum = plainStore(new Float32Array(0));
-    this.powerMax = plainStore(new Float32Array(0));
-    this.framesPerRow = new Uint32Array(0);
-    return state;
+    return this.snapshot();
   }
 
   /**
@@ -236,9 +226,4 @@ export class SpectrogramAccumulator {
     for (let base = 0; base < values.length; base += l) reorder(this.engine.layout, values, base, out, base);
     return out;
   }
-}
-
-/** A FloatStore over a plain array. */
-function plainStore(values: Float32Array): FloatStore {
-  return { length: values.length, view: () => values };
 }
