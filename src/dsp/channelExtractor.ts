@@ -63,6 +63,12 @@ export class ChannelExtractor {
   readonly stageFactors: readonly number[];
   /** The tap count of each stage, in order. */
   readonly stageTapCounts: readonly number[];
+  /**
+   * The chain's memory M, input samples: an output at input time t depends on the inputs
+   * t − M … t alone. The cascade is one filter of Σ (Li − 1)·∏_{j<i} Dj + 1 taps at the input
+   * rate followed by ↓D (the noble identities; Crochiere & Rabiner 1983, §3.1.3).
+   */
+  readonly memorySamples: number;
   private readonly nco: Nco;
   private readonly stages: readonly PolyphaseDecimator[];
 
@@ -109,6 +115,13 @@ export class ChannelExtractor {
     this.delayS = delayS;
     this.stageFactors = factors;
     this.stageTapCounts = stages.map((s) => s.tapCount);
+    let rate = 1;
+    let memory = 0;
+    stages.forEach((s, i) => {
+      memory += (s.tapCount - 1) * rate;
+      rate *= factors[i] ?? 1;
+    });
+    this.memorySamples = memory;
     this.nco = new Nco(offsetHz, fs);
     this.stages = stages;
   }
@@ -127,6 +140,39 @@ export class ChannelExtractor {
     let y = first.endBlock();
     for (let i = 1; i < this.stages.length; i++) y = (this.stages[i] as PolyphaseDecimator).push(y);
     return y;
+  }
+
+  /**
+   * Samples a block must hold before its own first sample for `pushOwned`: M + D − 1.
+   */
+  get warmupSamples(): number {
+    return this.memorySamples + this.decimation - 1;
+  }
+
+  /**
+   * The outputs of a block taken on its own, equal to what one continuous stream from input 0
+   * gives at the same indices: for a block holding the inputs from index `dataStart` on, and
+   * owning those from `ownedStart` on, the outputs at input times m·D ≥ ownedStart up to the
+   * block's end, their first index m = ⌈ownedStart/D⌉ as `firstOutput`. The chain restarts at
+   * s0 = max(0, ⌊(ownedStart − M)/D⌋·D), a multiple of D (so every stage keeps the stream's
+   * grid), and the outputs before ownedStart, which saw the restart's zeros, are dropped; from
+   * then on each output depends only on inputs the block holds (memorySamples), and the mixer's
+   * phase on the index alone (Nco), so the values are the stream's to the bit. Blocks can so be
+   * extracted apart (in worker threads) and put end to end. Needs s0 ≥ dataStart:
+   * ownedStart − dataStart ≥ min(ownedStart, warmupSamples). `iq` interleaved I,Q; the result
+   * is a view with reuseOutput, as for `push`.
+   */
+  pushOwned(iq: Float32Array, dataStart: number, ownedStart: number): { firstOutput: number; iq: Float32Array } {
+    const D = this.decimation;
+    const s0 = Math.max(0, Math.floor((ownedStart - this.memorySamples) / D) * D);
+    if (s0 < dataStart) {
+      throw new RangeError(`the block starts at ${dataStart}, after ${s0}, where extracting the outputs from ${ownedStart} on must start`);
+    }
+    this.nco.seek(s0);
+    for (const stage of this.stages) stage.reset();
+    const y = this.push(iq.subarray(2 * (s0 - dataStart)));
+    const firstOutput = Math.ceil(ownedStart / D);
+    return { firstOutput, iq: y.subarray(2 * (firstOutput - s0 / D)) };
   }
 }
 

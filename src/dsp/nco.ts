@@ -61,6 +61,18 @@ export class Nco {
   }
 
   /**
+   * The next `mix` call gets the sample of index `sampleIndex` (a non-negative safe integer):
+   * its output is what a continuous stream gives at that index (the phasor is a function of the
+   * index alone). Throws RangeError otherwise.
+   */
+  seek(sampleIndex: number): void {
+    if (!(Number.isSafeInteger(sampleIndex) && sampleIndex >= 0)) {
+      throw new RangeError(`sampleIndex ${sampleIndex} is not a non-negative safe integer`);
+    }
+    this.nextSample = sampleIndex;
+  }
+
+  /**
    * y = x·e^(−j2π·f·n/fs) for the block `iq` (interleaved I,Q, any even length), written to `out`
    * (same length; may be `iq` itself) or to a new array, which is returned.
    */

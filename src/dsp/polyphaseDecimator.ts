@@ -60,6 +60,16 @@ export class PolyphaseDecimator {
   }
 
   /**
+   * Back to the state of a new decimator: the history zeroed, the next input is a kept output's
+   * position again. The outputs after a reset are those of a new decimator given the same inputs.
+   */
+  reset(): void {
+    this.buffer.fill(0, 0, 2 * (this.tapCount - 1));
+    this.phase = 0;
+    this.pending = 0;
+  }
+
+  /**
    * Filters the block `iq` (interleaved I,Q, any even length, including 0) and returns the kept
    * outputs it completes, interleaved, in a new array (or, with reuseOutput, the decimator's).
    */

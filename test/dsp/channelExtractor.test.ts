@@ -126,6 +126,60 @@ describe("ChannelExtractor({ sampleRateHz: 2.4e6, offsetHz: 317e3, bandwidthHz: 
     expect(b).toEqual(a);
   });
 
+  it("has the memory of its equivalent single filter: an impulse at input t moves the outputs at times t … t + M only", () => {
+    // The noble identities make the cascade one filter of M + 1 taps, M = Σ (Li − 1)·∏_{j<i} Dj,
+    // followed by ↓D (Crochiere & Rabiner 1983, §3.1.3): its impulse response ends at t + M.
+    const ex = new ChannelExtractor({ sampleRateHz: FS, offsetHz: OFFSET, bandwidthHz: B });
+    const [l1, l2] = ex.stageTapCounts as [number, number];
+    expect(ex.memorySamples).toBe(l1 - 1 + 6 * (l2 - 1));
+    const t = 36 * 50 + 7;
+    const x = new Float32Array(2 * (t + ex.memorySamples + 400));
+    x[2 * t] = 1;
+    const y = ex.push(x);
+    let last = -1;
+    let first = -1;
+    for (let m = 0; m < y.length / 2; m++) {
+      if (y[2 * m] !== 0 || y[2 * m + 1] !== 0) {
+        if (first < 0) first = m;
+        last = m;
+      }
+    }
+    expect(first * 36).toBeGreaterThanOrEqual(t);
+    expect(last * 36).toBeLessThanOrEqual(t + ex.memorySamples);
+    // The response reaches its end: the last output inside the memory is not zero (the end taps of
+    // a Kaiser-window design are small but not zero).
+    expect(last).toBe(Math.floor((t + ex.memorySamples) / 36));
+  });
+
+  it("extracts blocks apart (pushOwned) to the same samples, to the bit, as one stream", () => {
+    const x = new Float32Array(2 * 300_000);
+    complexNoise(new SeededRandom(8), x, 1);
+    const stream = extract(new ChannelExtractor({ sampleRateHz: FS, offsetHz: OFFSET, bandwidthHz: B }), x, 5);
+    const apart = new ChannelExtractor({ sampleRateHz: FS, offsetHz: OFFSET, bandwidthHz: B, reuseOutput: true });
+    const warmup = apart.warmupSamples;
+    const joined: number[] = [];
+    let expectedFirst = 0;
+    // Blocks in a shuffled order, each with just the warm-up before its own samples.
+    const parts = randomPartition(x.length / 2, 40_000, 9);
+    const order = parts.map((_, i) => i).sort((a, b) => ((a * 7919) % parts.length) - ((b * 7919) % parts.length));
+    const outputs = new Map<number, Float32Array>();
+    for (const i of order) {
+      const [a, b] = parts[i] as [number, number];
+      const dataStart = Math.max(0, a - warmup);
+      const r = apart.pushOwned(x.subarray(2 * dataStart, 2 * b), dataStart, a);
+      outputs.set(r.firstOutput, r.iq.slice());
+    }
+    for (const [a] of parts) {
+      const chunk = outputs.get(Math.ceil(a / 36)) as Float32Array;
+      expect(Math.ceil(a / 36)).toBe(expectedFirst);
+      joined.push(...chunk);
+      expectedFirst += chunk.length / 2;
+    }
+    expect(Float32Array.from(joined)).toEqual(stream);
+    // A block without its warm-up is refused.
+    expect(() => apart.pushOwned(x.subarray(2 * 1000, 2 * 5000), 1000, 1000)).toThrow(RangeError);
+  });
+
   it("with reuseOutput hands out views of one array, with the same samples when each is copied at once", () => {
     const x = new Float32Array(2 * 100_000);
     complexNoise(new SeededRandom(6), x, 1);
