@@ -37,7 +37,7 @@ import {
   type XDbReference,
 } from "../measure/index.js";
 import type { Pass1Result } from "./pass1.js";
-import { runPass2, type Pass2Result } from "./pass2.js";
+import { runPass2, type Pass2Request, type Pass2Result } from "./pass2.js";
 import type { WholeSpanFigures } from "./wholeSpan.js";
 import { correctedOffsetHz, reportedOffsetOfHz } from "./clockCorrection.js";
 import { locateNearNominal } from "./nearNominal.js";
@@ -127,11 +127,8 @@ export async function measureEmission(
   const dcNote = dcSpikeNote({ skipped: region.dcSpikeSkipped, inside: region.dcSpikeInside, levelDbfs: dc.levelDbfs }, { offsetHz, widthHz });
   if (dcNote !== null) warnings.push(dcNote);
   const pass2 = options.extractedChannel
-    ?? await runPass2(source, span, {
-      offsetHz, bandwidthHz: widthHz, maxSamples: options.maxChannelSamples, onProgress: options.onProgress,
-      // The whole-span stage runs whenever measureEmission reads the channel itself; measure needs no spectra from it.
-      wholeSpan: { audioBandwidthHz, hold: false }, onInputBlock: options.onInputBlock,
-    });
+    ?? pass2FromPass1(pass1, offsetHz, widthHz, options)
+    ?? await runPass2(source, span, { ...pass2Request(offsetHz, widthHz, options), onProgress: options.onProgress, onInputBlock: options.onInputBlock });
   warnings.push(...pass2.warnings);
   const fsc = pass2.sampleRateHz;
   // A record cut short of the span: the figures the worst moment decides come from the whole span.
@@ -492,6 +489,31 @@ export const MIN_SYMBOLS = 64;
  * Checks the options against the capture's metadata and the span, before any sample is read
  * (measureCommand calls it right after opening the capture): UsageError naming the option.
  */
+/** The pass 2 measureEmission runs for the channel offsetHz ± widthHz/2. */
+function pass2Request(offsetHz: number, widthHz: number, options: MeasureEmissionOptions): Pass2Request {
+  const audioBandwidthHz = options.audioBandwidthHz ?? MEASURE_DEFAULTS.audioBandwidthHz;
+  // The whole-span stage runs whenever measureEmission reads the channel itself; measure needs no spectra from it.
+  return { offsetHz, bandwidthHz: widthHz, maxSamples: options.maxChannelSamples, wholeSpan: { audioBandwidthHz, hold: false } };
+}
+
+/**
+ * The pass 2 to ask of pass 1 (Pass1Options.channel), when the channel is known before it (given
+ * with --channel) and nothing else reads the span beside pass 2: extracted in pass 1's read,
+ * it is what measureEmission would read itself, and it takes it from there. Else undefined.
+ */
+export function pass2BesidePass1(options: MeasureEmissionOptions, meta: CaptureMeta): Pass2Request | undefined {
+  const c = options.channel;
+  if (c === undefined || options.extractedChannel !== undefined || options.onInputBlock !== undefined) return undefined;
+  return pass2Request(c.offsetHz, Math.min(c.widthHz, 0.9 * meta.sampleRateHz), options);
+}
+
+/** Pass 1's pass 2 (pass2BesidePass1), when it is of this channel and nothing reads beside it; else undefined. */
+function pass2FromPass1(pass1: Pass1Result, offsetHz: number, widthHz: number, options: MeasureEmissionOptions): Pass2Result | undefined {
+  const p = pass1.pass2;
+  if (p === null || options.onInputBlock !== undefined || p.offsetHz !== offsetHz || p.bandwidthHz !== widthHz) return undefined;
+  return p;
+}
+
 export function checkMeasureOptions(options: MeasureEmissionOptions, meta: CaptureMeta, span: SampleSpan): void {
   const fs = meta.sampleRateHz;
   const spanS = span.sampleCount / fs;

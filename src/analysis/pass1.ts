@@ -15,7 +15,8 @@ import type { CaptureMeta, SampleSpan } from "../capture/source.js";
 import { CaptureFormatError, ParameterError } from "../errors.js";
 import { noiseFloor, type HealthFigures, type Spectrogram, type WelchPsd } from "../dsp/index.js";
 import { formatInfo } from "../capture/sampleFormat.js";
-import { Pass1Engine, prefixSamples, type Pass1Config } from "./pass1Engine.js";
+import { Pass1Engine, prefixSamples, type ChannelChunk, type Pass1Config } from "./pass1Engine.js";
+import { Pass2Collector, type Pass2Request, type Pass2Result } from "./pass2.js";
 import { stateBuffers, type Pass1Figures, type WorkerReply, type WorkerRequest } from "./workerMessages.js";
 import { spectrumPeak, type SpectrumPeak } from "./spectrumPeak.js";
 
@@ -34,6 +35,13 @@ export interface Pass1Options {
   readonly blockSamples?: number | undefined;
   /** Called after each block with the bytes read so far and the bytes to read in all. */
   readonly onProgress?: ((doneBytes: number, totalBytes: number) => void) | undefined;
+  /**
+   * A channel known before pass 1 (a measure with --channel): pass 2 of it in the same read,
+   * each block's channel extracted where the block is processed (ChannelExtractor.pushOwned) and
+   * the blocks' channel samples put end to end here; the result is `pass2`, what runPass2 with
+   * these options gives, to the bit.
+   */
+  readonly channel?: Pass2Request | undefined;
 }
 
 export const PASS1_DEFAULTS = {
@@ -60,15 +68,20 @@ export interface Pass1Result {
   readonly peak: SpectrumPeak;
   /** Worker threads used (0 = the calling thread). */
   readonly workers: number;
+  /** Pass 2 of `channel`, when asked for; else null. */
+  readonly pass2: Pass2Result | null;
   readonly warnings: readonly string[];
 }
 
 /** Runs pass 1 over `span` of the capture described by `meta`. */
 export async function runPass1(meta: CaptureMeta, span: SampleSpan, options: Pass1Options = {}): Promise<Pass1Result> {
   const warnings: string[] = [];
-  const config = planPass1(meta, span, options, warnings);
+  const collector = options.channel === undefined ? null : new Pass2Collector(meta.sampleRateHz, span, options.channel);
+  const config = planPass1(meta, span, options, warnings, collector);
   const workerCount = chooseWorkers(options.workers, span.sampleCount, config.maxBlockSamples);
-  const sink = workerCount > 0 ? new WorkerSink(config, workerCount) : new InlineSink(config);
+  const assembler = collector === null ? null : new ChannelAssembler(collector);
+  const onChannel = (chunk: ChannelChunk | null): void => { if (chunk !== null) assembler?.add(chunk); };
+  const sink = workerCount > 0 ? new WorkerSink(config, workerCount, onChannel) : new InlineSink(config, onChannel);
   const handle = await open(meta.dataPath, "r");
   let sha256: string;
   try {
@@ -80,6 +93,7 @@ export async function runPass1(meta: CaptureMeta, span: SampleSpan, options: Pas
     await handle.close();
   }
   const { psd, spectrogram, health } = await sink.finish();
+  const pass2 = assembler === null ? null : assembler.finish(span.sampleCount);
   return {
     sha256,
     span,
@@ -89,12 +103,41 @@ export async function runPass1(meta: CaptureMeta, span: SampleSpan, options: Pas
     noiseFloor: noiseFloor(psd),
     peak: spectrumPeak(psd),
     workers: workerCount,
+    pass2,
     warnings,
   };
 }
 
+/**
+ * Puts the blocks' channel samples end to end: blocks finish in any order across workers,
+ * each chunk waits until the ones before it are in (at most the blocks in flight: bounded).
+ */
+class ChannelAssembler {
+  private readonly waiting = new Map<number, Float32Array>();
+  private next = 0;
+  constructor(private readonly collector: Pass2Collector) {}
+
+  add(chunk: ChannelChunk): void {
+    this.waiting.set(chunk.firstOutput, chunk.iq);
+    for (let iq = this.waiting.get(this.next); iq !== undefined; iq = this.waiting.get(this.next)) {
+      this.waiting.delete(this.next);
+      this.collector.push(iq);
+      this.next += iq.length / 2;
+    }
+  }
+
+  /** Pass 2's result; throws if a block's samples are missing (a fault of pass 1, not of the capture). */
+  finish(inputSamples: number): Pass2Result {
+    const expected = Math.ceil(inputSamples / this.collector.extractor.decimation);
+    if (this.waiting.size > 0 || this.next !== expected) {
+      throw new Error(`pass 1's channel samples stop at output ${this.next} of ${expected}`);
+    }
+    return this.collector.finish(inputSamples);
+  }
+}
+
 /** Checks the FFT settings against the span; a segment longer than the span is shortened, with a warning. */
-function planPass1(meta: CaptureMeta, span: SampleSpan, options: Pass1Options, warnings: string[]): Pass1Config {
+function planPass1(meta: CaptureMeta, span: SampleSpan, options: Pass1Options, warnings: string[], collector: Pass2Collector | null): Pass1Config {
   const n = span.sampleCount;
   if (n < 16) throw new CaptureFormatError(meta.path, `${n} samples in the analysed span; at least 16 are needed`);
   const fit = (name: string, wanted: number): number => {
@@ -126,6 +169,9 @@ function planPass1(meta: CaptureMeta, span: SampleSpan, options: Pass1Options, w
     spectrogramFftLength,
     spectrogramRows: rows,
     maxBlockSamples: Math.max(blockSamples, 1),
+    channel: collector === null || options.channel === undefined ? null : {
+      offsetHz: options.channel.offsetHz, bandwidthHz: options.channel.bandwidthHz, warmupSamples: collector.extractor.warmupSamples,
+    },
   };
 }
 
@@ -235,7 +281,7 @@ class InlineSink implements BlockSink {
   private readonly engine: Pass1Engine;
   private readonly buffers: ArrayBuffer[];
   private turn = 0;
-  constructor(config: Pass1Config) {
+  constructor(config: Pass1Config, private readonly onChannel: (chunk: ChannelChunk | null) => void) {
     this.engine = new Pass1Engine(config);
     this.buffers = [new ArrayBuffer(blockBytes(config)), new ArrayBuffer(blockBytes(config))];
   }
@@ -244,7 +290,7 @@ class InlineSink implements BlockSink {
     return this.buffers[this.turn] as ArrayBuffer;
   }
   submit(buffer: ArrayBuffer, byteOffset: number, byteLength: number, prefixFrames: number, ownedStart: number): void {
-    this.engine.processBlock(new Uint8Array(buffer, byteOffset, byteLength), prefixFrames, ownedStart);
+    this.onChannel(this.engine.processBlock(new Uint8Array(buffer, byteOffset, byteLength), prefixFrames, ownedStart));
   }
   async finish(): Promise<{ psd: WelchPsd; spectrogram: Spectrogram; health: HealthFigures }> {
     return this.engine.finish();
@@ -263,7 +309,7 @@ class WorkerSink implements BlockSink {
   private readonly waiting: ((b: ArrayBuffer) => void)[] = [];
   private failure: Error | null = null;
 
-  constructor(config: Pass1Config, count: number) {
+  constructor(config: Pass1Config, count: number, onChannel: (chunk: ChannelChunk | null) => void) {
     const bytes = blockBytes(config);
     for (let k = 0; k < 2 * count + 1; k++) this.free.push(new ArrayBuffer(bytes));
     for (let k = 0; k < count; k++) {
@@ -271,16 +317,24 @@ class WorkerSink implements BlockSink {
       worker.on("message", (reply: WorkerReply) => {
         if (reply.type === "done") {
           this.inFlight[k] = (this.inFlight[k] as number) - 1;
+          try {
+            onChannel(reply.channel);
+          } catch (e) {
+            this.fail(e);
+          }
           this.release(reply.buffer);
         }
       });
-      worker.on("error", (e) => {
-        this.failure = e instanceof Error ? e : new Error(String(e));
-        for (const w of this.waiting.splice(0)) w(new ArrayBuffer(0));
-      });
+      worker.on("error", (e) => this.fail(e));
       this.workers.push(worker);
       this.inFlight.push(0);
     }
+  }
+
+  /** Remembers the first failure and wakes whoever waits for a buffer, so that it sees it. */
+  private fail(e: unknown): void {
+    this.failure ??= e instanceof Error ? e : new Error(String(e));
+    for (const w of this.waiting.splice(0)) w(new ArrayBuffer(0));
   }
 
   private release(buffer: ArrayBuffer): void {

@@ -6,6 +6,7 @@
 import { decodeSamples, formatInfo } from "../capture/sampleFormat.js";
 import type { SampleFormat } from "../capture/source.js";
 import {
+  ChannelExtractor,
   HealthAccumulator,
   sampleStore,
   SpectrogramAccumulator,
@@ -31,11 +32,27 @@ export interface Pass1Config {
   readonly spectrogramRows: number;
   /** Largest block, in samples, not counting the prefix. */
   readonly maxBlockSamples: number;
+  /** A channel extracted from every block beside the pass-1 work (pass 2 in the same read), or null. */
+  readonly channel: ChannelPlan | null;
+}
+
+/** The channel an engine extracts: ChannelExtractor's options, and the warm-up a block needs for it. */
+export interface ChannelPlan {
+  readonly offsetHz: number;
+  readonly bandwidthHz: number;
+  /** ChannelExtractor.warmupSamples of this channel. */
+  readonly warmupSamples: number;
+}
+
+/** One block's channel samples: interleaved I,Q, the first at output index `firstOutput`. */
+export interface ChannelChunk {
+  readonly firstOutput: number;
+  readonly iq: Float32Array;
 }
 
 /** The overlap prefix every block carries: the longest frame of any accumulator. */
 export function prefixSamples(config: Pass1Config): number {
-  return Math.max(config.welchFftLength, config.spectrogramFftLength);
+  return Math.max(config.welchFftLength, config.spectrogramFftLength, config.channel?.warmupSamples ?? 0);
 }
 
 export interface Pass1EngineState {
@@ -51,6 +68,7 @@ export class Pass1Engine {
   /** Decoded samples, in the fast engine's memory (dsp sampleStore): windowed and measured there. */
   private readonly decoded: FloatStore;
   private readonly frameBytes: number;
+  private readonly channel: ChannelExtractor | null;
 
   constructor(private readonly config: Pass1Config) {
     this.welch = new WelchAccumulator({
@@ -67,14 +85,17 @@ export class Pass1Engine {
     this.health = new HealthAccumulator();
     this.frameBytes = formatInfo(config.format).frameBytes;
     this.decoded = sampleStore(2 * (config.maxBlockSamples + prefixSamples(config)));
+    const c = config.channel;
+    this.channel = c === null ? null : new ChannelExtractor({ sampleRateHz: config.sampleRateHz, offsetHz: c.offsetHz, bandwidthHz: c.bandwidthHz, reuseOutput: true });
   }
 
   /**
    * Processes one block: `raw` holds `prefixFrames` frames that precede the block's own samples
    * (already counted by the previous block) and then the block's own frames, whose first sample
-   * has span index `ownedStart`.
+   * has span index `ownedStart`. Returns the block's channel samples (a new array), or null
+   * without a channel.
    */
-  processBlock(raw: Uint8Array, prefixFrames: number, ownedStart: number): void {
+  processBlock(raw: Uint8Array, prefixFrames: number, ownedStart: number): ChannelChunk | null {
     const prefixBytes = prefixFrames * this.frameBytes;
     const { format, swapIq } = this.config;
     const decoded = this.decoded.view();
@@ -82,10 +103,12 @@ export class Pass1Engine {
     const own = decodeSamples(format, raw.subarray(prefixBytes), decoded.subarray(2 * head.frames), swapIq);
     const iq = decoded.subarray(0, 2 * (head.frames + own.frames));
     const dataStart = ownedStart - head.frames;
+    const channel = this.channel?.pushOwned(iq, dataStart, ownedStart) ?? null;
     this.health.addDecodeCounts(own);
     this.health.push(iq, dataStart, ownedStart);
     this.welch.push(iq, dataStart, ownedStart);
     this.spectrogram.push(iq, dataStart, ownedStart);
+    return channel === null ? null : { firstOutput: channel.firstOutput, iq: channel.iq.slice() };
   }
 
   snapshot(): Pass1EngineState {

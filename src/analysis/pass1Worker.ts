@@ -14,9 +14,9 @@ const engine = new Pass1Engine(workerData as Pass1Config);
 port.on("message", (message: WorkerRequest) => {
   if (message.type === "block") {
     const raw = new Uint8Array(message.buffer, message.byteOffset, message.byteLength);
-    engine.processBlock(raw, message.prefixFrames, message.ownedStart);
-    const reply: WorkerReply = { type: "done", buffer: message.buffer };
-    port.postMessage(reply, [message.buffer]);
+    const channel = engine.processBlock(raw, message.prefixFrames, message.ownedStart);
+    const reply: WorkerReply = { type: "done", buffer: message.buffer, channel };
+    port.postMessage(reply, channel === null ? [message.buffer] : [message.buffer, channel.iq.buffer as ArrayBuffer]);
   } else if (message.type === "finish") {
     // The engine is done: its state is copied out of the engine's memory once and transferred.
     const state = engine.snapshot();

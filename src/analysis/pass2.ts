@@ -58,72 +58,119 @@ export interface Pass2Result {
 
 export const PASS2_DEFAULTS = { maxSamples: 1 << 20, blockSamples: 65_536 } as const;
 
+/** What a channel read beside pass 1 is asked for (Pass1Options.channel): pass 2 without its own read. */
+export type Pass2Request = Pick<Pass2Options, "offsetHz" | "bandwidthHz" | "maxSamples" | "wholeSpan">;
+
 export async function runPass2(source: CaptureSource, span: SampleSpan, options: Pass2Options): Promise<Pass2Result> {
   const fs = source.meta.sampleRateHz;
-  // Blocks and the extractor's outputs are reused arrays (copied into `out` at once): no garbage a block.
-  const extractor = new ChannelExtractor({ sampleRateHz: fs, offsetHz: options.offsetHz, bandwidthHz: options.bandwidthHz, reuseOutput: true });
-  const maxSamples = options.maxSamples ?? PASS2_DEFAULTS.maxSamples;
-  const fsOut = extractor.outputRateHz;
-  // The first outputs hold the filters' start-up transient: skip one filter delay.
-  const skip = Math.ceil(extractor.delayS * fsOut);
-  const expected = Math.max(0, Math.floor(span.sampleCount / extractor.decimation) - skip);
-  const keep = Math.min(expected, maxSamples);
-  const whole = options.wholeSpan === undefined ? null : new WholeSpanAccumulator(extractor, span.sampleCount, {
-    ...options.wholeSpan,
-    // Without a mask's RBW, 300 Hz or what a 32 768-sample frame allows at the channel rate (used only with `hold`).
-    maskResolutionHz: options.wholeSpan.maskResolutionHz ?? Math.max(300, (1.5 * fsOut) / 32_768),
-    offsetHz: options.offsetHz,
-    bandwidthHz: options.bandwidthHz,
-  });
-  const inputNeeded = whole !== null || options.onInputBlock !== undefined ? span.sampleCount : Math.min(span.sampleCount, (keep + skip + 2) * extractor.decimation + 64 * extractor.decimation);
-  const out = new Float32Array(2 * keep);
-  let kept = 0;
-  let skipped = 0;
+  const collector = new Pass2Collector(fs, span, options, options.onInputBlock !== undefined);
+  const inputNeeded = collector.inputNeeded;
   let read = 0;
   const blockSamples = options.blockSamples ?? PASS2_DEFAULTS.blockSamples;
   for await (const block of source.blocks({ startSample: span.startSample, sampleCount: inputNeeded }, blockSamples, { reuse: true })) {
     read += block.length / 2;
     options.onInputBlock?.(block);
-    const y = extractor.push(block);
-    whole?.push(y);
+    collector.push(collector.extractor.push(block));
+    options.onProgress?.(read, inputNeeded);
+    if (collector.done) break;
+  }
+  return collector.finish(read);
+}
+
+/**
+ * The channel samples of pass 2, as they come (from its own read, or from pass 1's workers
+ * block by block, in order): the filters' settling skipped, the record kept up to maxSamples,
+ * the whole-span accumulators fed. Holds the extractor the samples are to come from (its
+ * parameters; pass 1's workers run copies of it).
+ */
+export class Pass2Collector {
+  /** Extractor of the channel: `push` its outputs here. */
+  readonly extractor: ChannelExtractor;
+  /** Input samples the channel needs read: the span, or enough for the record alone. */
+  readonly inputNeeded: number;
+  private readonly whole: WholeSpanAccumulator | null;
+  private readonly skip: number;
+  private readonly keep: number;
+  private readonly expected: number;
+  private readonly out: Float32Array;
+  private readonly readsWhole: boolean;
+  private kept = 0;
+  private skipped = 0;
+
+  /** `readWhole`: the span is read to its end even without the whole-span stage (another stage reads beside). */
+  constructor(private readonly sampleRateHz: number, private readonly span: SampleSpan, private readonly options: Pass2Request, readWhole = false) {
+    // Blocks and the extractor's outputs are reused arrays (copied into `out` at once): no garbage a block.
+    const extractor = new ChannelExtractor({ sampleRateHz, offsetHz: options.offsetHz, bandwidthHz: options.bandwidthHz, reuseOutput: true });
+    this.extractor = extractor;
+    const maxSamples = options.maxSamples ?? PASS2_DEFAULTS.maxSamples;
+    const fsOut = extractor.outputRateHz;
+    // The first outputs hold the filters' start-up transient: skip one filter delay.
+    this.skip = Math.ceil(extractor.delayS * fsOut);
+    this.expected = Math.max(0, Math.floor(span.sampleCount / extractor.decimation) - this.skip);
+    this.keep = Math.min(this.expected, maxSamples);
+    this.whole = options.wholeSpan === undefined ? null : new WholeSpanAccumulator(extractor, span.sampleCount, {
+      ...options.wholeSpan,
+      // Without a mask's RBW, 300 Hz or what a 32 768-sample frame allows at the channel rate (used only with `hold`).
+      maskResolutionHz: options.wholeSpan.maskResolutionHz ?? Math.max(300, (1.5 * fsOut) / 32_768),
+      offsetHz: options.offsetHz,
+      bandwidthHz: options.bandwidthHz,
+    });
+    this.readsWhole = this.whole !== null || readWhole;
+    this.inputNeeded = this.readsWhole ? span.sampleCount : Math.min(span.sampleCount, (this.keep + this.skip + 2) * extractor.decimation + 64 * extractor.decimation);
+    this.out = new Float32Array(2 * this.keep);
+  }
+
+  /** True once nothing more is needed (the record is full and nothing reads the whole span). */
+  get done(): boolean {
+    return this.kept >= this.keep && !this.readsWhole;
+  }
+
+  /** The next channel samples (interleaved I,Q), in order from the span's first output on. */
+  push(y: Float32Array): void {
+    this.whole?.push(y);
     let from = 0;
     const n = y.length / 2;
-    if (skipped < skip) {
-      const s = Math.min(skip - skipped, n);
-      skipped += s;
+    if (this.skipped < this.skip) {
+      const s = Math.min(this.skip - this.skipped, n);
+      this.skipped += s;
       from = s;
     }
-    const take = Math.min(n - from, keep - kept);
+    const take = Math.min(n - from, this.keep - this.kept);
     if (take > 0) {
-      out.set(y.subarray(2 * from, 2 * (from + take)), 2 * kept);
-      kept += take;
+      this.out.set(y.subarray(2 * from, 2 * (from + take)), 2 * this.kept);
+      this.kept += take;
     }
-    options.onProgress?.(read, inputNeeded);
-    if (kept >= keep && whole === null && options.onInputBlock === undefined) break;
   }
-  const warnings: string[] = [];
-  const complete = expected <= maxSamples;
-  const wholeSpan = whole === null ? null : whole.finish();
-  if (wholeSpan !== null) warnings.push(...wholeSpan.warnings);
-  if (!complete) {
-    const measuredS = (maxSamples / fsOut).toFixed(2);
-    const analysedS = (span.sampleCount / fs).toFixed(2);
-    warnings.push(
-      wholeSpan === null
-        ? `the emission was measured over the first ${measuredS} s of the ${analysedS} s analysed (the decimated channel is kept up to ${maxSamples} samples)`
-        : `the carrier, peak deviation, occupied bandwidth and spectra cover the whole ${analysedS} s analysed; the class and the other figures its first ${measuredS} s (the decimated channel is kept up to ${maxSamples} samples)`,
-    );
+
+  /** The result, after `inputSamples` input samples were read. */
+  finish(inputSamples: number): Pass2Result {
+    const { extractor, span, options } = this;
+    const maxSamples = options.maxSamples ?? PASS2_DEFAULTS.maxSamples;
+    const fsOut = extractor.outputRateHz;
+    const warnings: string[] = [];
+    const complete = this.expected <= maxSamples;
+    const wholeSpan = this.whole === null ? null : this.whole.finish();
+    if (wholeSpan !== null) warnings.push(...wholeSpan.warnings);
+    if (!complete) {
+      const measuredS = (maxSamples / fsOut).toFixed(2);
+      const analysedS = (span.sampleCount / this.sampleRateHz).toFixed(2);
+      warnings.push(
+        wholeSpan === null
+          ? `the emission was measured over the first ${measuredS} s of the ${analysedS} s analysed (the decimated channel is kept up to ${maxSamples} samples)`
+          : `the carrier, peak deviation, occupied bandwidth and spectra cover the whole ${analysedS} s analysed; the class and the other figures its first ${measuredS} s (the decimated channel is kept up to ${maxSamples} samples)`,
+      );
+    }
+    return {
+      iq: this.kept === this.keep ? this.out : this.out.subarray(0, 2 * this.kept),
+      sampleRateHz: fsOut,
+      decimation: extractor.decimation,
+      offsetHz: options.offsetHz,
+      bandwidthHz: options.bandwidthHz,
+      startS: this.skip / fsOut,
+      inputSamples,
+      complete,
+      wholeSpan,
+      warnings,
+    };
   }
-  return {
-    iq: kept === keep ? out : out.subarray(0, 2 * kept),
-    sampleRateHz: fsOut,
-    decimation: extractor.decimation,
-    offsetHz: options.offsetHz,
-    bandwidthHz: options.bandwidthHz,
-    startS: skip / fsOut,
-    inputSamples: read,
-    complete,
-    wholeSpan,
-    warnings,
-  };
 }

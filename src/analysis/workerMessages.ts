@@ -1,6 +1,6 @@
 /** Messages between pass 1 and its worker threads, and their transfer lists. */
 import type { HealthFigures, Spectrogram, WelchPsd } from "../dsp/index.js";
-import type { Pass1EngineState } from "./pass1Engine.js";
+import type { ChannelChunk, Pass1EngineState } from "./pass1Engine.js";
 
 /** What pass 1 computes from its accumulators. */
 export interface Pass1Figures {
@@ -24,7 +24,7 @@ export type WorkerRequest =
   | { readonly type: "mergeAndFinish"; readonly states: readonly Pass1EngineState[]; readonly discard: readonly ArrayBuffer[] };
 
 export type WorkerReply =
-  | { readonly type: "done"; readonly buffer: ArrayBuffer }
+  | { readonly type: "done"; readonly buffer: ArrayBuffer; readonly channel: ChannelChunk | null }
   | { readonly type: "state"; readonly state: Pass1EngineState }
   | { readonly type: "figures"; readonly figures: Pass1Figures };
 

@@ -6,7 +6,7 @@ import { createHash } from "node:crypto";
 import { open } from "node:fs/promises";
 import { openCapture, resolveSpan } from "../capture/index.js";
 import { PASS1_DEFAULTS, runPass1 } from "../analysis/index.js";
-import { measureEmission } from "../analysis/measureEmission.js";
+import { measureEmission, pass2BesidePass1 } from "../analysis/measureEmission.js";
 import { fastFft, fftImplementation } from "../dsp/index.js";
 import { surveyCapture } from "../survey/index.js";
 import { checkCommand } from "../commands/check.js";
@@ -25,13 +25,15 @@ async function main(): Promise<void> {
     samples = span.sampleCount;
     await runPass1(source.meta, span, { workers: workersText === undefined ? "auto" : Number(workersText) });
   } else if (mode === "measure") {
-    // measure of the FM emission at +300 kHz (25 kHz channel): pass 1, then pass 2 and the figures.
+    // measure of the FM emission at +300 kHz (25 kHz channel): pass 1 with the channel's pass 2, then the figures.
     const source = await openCapture(path, {});
     const { span } = resolveSpan(source.meta);
     samples = span.sampleCount;
-    const pass1 = await runPass1(source.meta, span, {});
+    // As `iqaudit measure --channel` does it: the channel extracted in pass 1's read.
+    const options = { channel: { offsetHz: 300e3, widthHz: 25e3 } };
+    const pass1 = await runPass1(source.meta, span, { channel: pass2BesidePass1(options, source.meta) });
     const afterPass1 = process.hrtime.bigint();
-    await measureEmission(source, span, pass1, { channel: { offsetHz: 300e3, widthHz: 25e3 } });
+    await measureEmission(source, span, pass1, options);
     await source.close();
     const end = process.hrtime.bigint();
     extra = { pass1S: Number(afterPass1 - started) / 1e9, pass2S: Number(end - afterPass1) / 1e9 };

@@ -25,7 +25,7 @@ export async function analyseCapture(path: string, args: CaptureArgs, pass1: Pas
 
 /**
  * Opens the capture, checks the command's options against its metadata (`check`, before any
- * sample is read), runs pass 1 over the span, and hands the result and the still-open source
+ * sample is read; it may return options to add to pass 1's), runs pass 1 over the span, and hands the result and the still-open source
  * to `use` (for a pass 2); the source is closed afterwards, whatever happens.
  */
 export async function withAnalysedCapture<T>(
@@ -33,15 +33,16 @@ export async function withAnalysedCapture<T>(
   args: CaptureArgs,
   pass1: Pass1Options,
   use: (a: AnalysedCapture, source: CaptureSource) => Promise<T>,
-  check?: (meta: CaptureMeta, span: SampleSpan) => void,
+  check?: (meta: CaptureMeta, span: SampleSpan) => Pass1Options | void,
 ): Promise<T> {
   const source = await openCapture(path, args);
   try {
     const meta = source.meta;
     const { span, warnings: spanWarnings } = resolveSpan(meta, args.startS, args.durationS);
     // The command's options against the metadata, before a multi-GB pass 1 is spent on a typo.
-    check?.(meta, span);
-    const result = await runPass1(meta, span, pass1);
+    // It may also ask more of pass 1 (a channel to extract in the same read).
+    const more = check?.(meta, span);
+    const result = await runPass1(meta, span, more ? { ...pass1, ...more } : pass1);
     const warnings = [...meta.warnings, ...spanWarnings, ...result.warnings, ...healthWarnings(result)];
     return await use({ meta, span, pass1: result, warnings }, source);
   } finally {

@@ -5,7 +5,7 @@
  */
 import { basename, join } from "node:path";
 import type { Pass1Options } from "../analysis/index.js";
-import { checkMeasureOptions, measureEmission, type MeasureEmissionOptions } from "../analysis/measureEmission.js";
+import { checkMeasureOptions, measureEmission, pass2BesidePass1, type MeasureEmissionOptions } from "../analysis/measureEmission.js";
 import type { EmissionFigures } from "../analysis/emissionFigures.js";
 import { resolveChannel, type ChannelRequest } from "../analysis/channelRequest.js";
 import { withAnalysedCapture, type AnalysedCapture, type CaptureArgs } from "./analyseCapture.js";
@@ -55,6 +55,8 @@ async function measured<T>(path: string, options: MeasureOptions, then: (a: Anal
     const asGiven = options.channelAsGiven;
     if (asGiven !== undefined) resolved = { ...options, channel: resolveChannel(asGiven, meta) };
     checkMeasureOptions(resolved, meta, span);
+    // A channel known now is extracted in pass 1's read (no second read of the span).
+    return { channel: pass2BesidePass1(resolved, meta) };
   });
 }
 

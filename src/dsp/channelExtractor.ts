@@ -17,6 +17,7 @@
  * δ with gain ∏ Hi(δ) ≈ 1; a tone with |δ| ≥ fst is attenuated by at least A dB before it reaches
  * the output. White noise of density N0 (FS²/Hz) leaves with the same density over the passband.
  */
+import { chainKernelsByDefault, KernelArena } from "./chainKernels.js";
 import { designLowpass } from "./firDesign.js";
 import { Nco } from "./nco.js";
 import { PolyphaseDecimator } from "./polyphaseDecimator.js";
@@ -36,6 +37,11 @@ export interface ChannelExtractorOptions {
    * copies the channel samples at once: no garbage a block); false (default): a new array.
    */
   readonly reuseOutput?: boolean;
+  /**
+   * Run the mixer and the decimators' dot products in the SIMD kernels (chainKernels.ts; the
+   * same values as the JavaScript loops). Default: on the SIMD path (chainKernelsByDefault).
+   */
+  readonly kernels?: boolean;
 }
 
 /** Defaults of ChannelExtractorOptions. */
@@ -89,6 +95,7 @@ export class ChannelExtractor {
     const fp = B / 2;
     const fst = fs / D - fp;
     const stages: PolyphaseDecimator[] = [];
+    const arena = options.kernels ?? chainKernelsByDefault() ? new KernelArena() : null;
     let rateHz = fs;
     let delayS = 0;
     factors.forEach((f, i) => {
@@ -96,7 +103,7 @@ export class ChannelExtractor {
       const stopHz = i === factors.length - 1 ? fst : outRateHz - fst;
       const taps = designLowpass({ cutoffHz: fp, transitionHz: stopHz - fp, stopbandDb, sampleRateHz: rateHz });
       // Between stages the next one copies its input at once: only the last may hand out a new array.
-      const stage = new PolyphaseDecimator(taps, f, i < factors.length - 1 || options.reuseOutput === true);
+      const stage = new PolyphaseDecimator(taps, f, i < factors.length - 1 || options.reuseOutput === true, arena);
       delayS += stage.delaySamples / rateHz;
       stages.push(stage);
       rateHz = outRateHz;
@@ -104,7 +111,7 @@ export class ChannelExtractor {
     if (factors.length === 0 && fp < 0.45 * fs) {
       // No decimation: still low-pass to the channel, stopband from fs/2 on.
       const taps = designLowpass({ cutoffHz: fp, transitionHz: fs / 2 - fp, stopbandDb, sampleRateHz: fs });
-      const stage = new PolyphaseDecimator(taps, 1, options.reuseOutput === true);
+      const stage = new PolyphaseDecimator(taps, 1, options.reuseOutput === true, arena);
       delayS += stage.delaySamples / fs;
       stages.push(stage);
     }
@@ -122,7 +129,7 @@ export class ChannelExtractor {
       rate *= factors[i] ?? 1;
     });
     this.memorySamples = memory;
-    this.nco = new Nco(offsetHz, fs);
+    this.nco = new Nco(offsetHz, fs, 0, arena);
     this.stages = stages;
   }
 

@@ -148,4 +148,86 @@
         (local.set $spec (i32.add (local.get $spec) (i32.const 32)))
         (local.set $sum (i32.add (local.get $sum) (i32.const 16)))
         (br $next))))
+
+  ;; The channel extractor's loops (nco.ts, polyphaseDecimator.ts), in float64x2 with each complex
+  ;; sample's (I, Q) one vector: the same operations in the same order as the JavaScript loops,
+  ;; so the outputs are theirs to the bit. This instance works in a memory of its own (chainKernels.ts).
+
+  ;; The mixer in place over $count interleaved float32 samples at $y: with P = c·T + s·T′ from
+  ;; the table at $t (32 bytes an index: T = (cos, sin), T′ = (−sin, cos), float64), the sample
+  ;; (xr, xi) becomes (xr·Pr − xi·Pi, xr·Pi + xi·Pr), rounded to float32.
+  (func (export "mix") (param $y i32) (param $count i32) (param $t i32) (param $c f64) (param $s f64)
+    (local $end i32) (local $cv v128) (local $sv v128) (local $p v128) (local $x v128) (local $o v128)
+    (local.set $cv (f64x2.splat (local.get $c)))
+    (local.set $sv (f64x2.splat (local.get $s)))
+    (local.set $end (i32.add (local.get $y) (i32.shl (local.get $count) (i32.const 3))))
+    (block $done
+      (loop $next
+        (br_if $done (i32.ge_u (local.get $y) (local.get $end)))
+        (local.set $p (f64x2.add
+          (f64x2.mul (local.get $cv) (v128.load align=8 (local.get $t)))
+          (f64x2.mul (local.get $sv) (v128.load offset=16 align=8 (local.get $t)))))
+        (local.set $x (f64x2.promote_low_f32x4 (v128.load64_zero align=4 (local.get $y))))
+        (local.set $o (f64x2.add
+          (f64x2.mul (f64x2.splat (f64x2.extract_lane 0 (local.get $x))) (local.get $p))
+          (f64x2.mul (f64x2.splat (f64x2.extract_lane 1 (local.get $x)))
+            (f64x2.mul (i8x16.shuffle 8 9 10 11 12 13 14 15 0 1 2 3 4 5 6 7 (local.get $p) (local.get $p))
+              (v128.const f64x2 -1 1)))))
+        (v128.store64_lane align=4 0 (local.get $y) (f32x4.demote_f64x2_zero (local.get $o)))
+        (local.set $y (i32.add (local.get $y) (i32.const 8)))
+        (local.set $t (i32.add (local.get $t) (i32.const 32)))
+        (br $next))))
+
+  ;; The decimator's dot products for symmetric taps: output j (j < $count) is
+  ;; Σ_k h[k]·(x[a + k] + x[a + L − 1 − k]) over the pairs, a = $first + j·$D, with two
+  ;; accumulators (pairs k even and odd) added at the end, then the middle tap of an odd L:
+  ;; complex float32 samples at $buf, float64 taps at $h, float32 outputs at $out.
+  (func (export "symdots") (param $buf i32) (param $first i32) (param $D i32) (param $count i32)
+      (param $h i32) (param $L i32) (param $out i32)
+    (local $j i32) (local $a i32) (local $b i32) (local $k i32) (local $pairs i32) (local $t i32)
+    (local $acc0 v128) (local $acc1 v128)
+    (local.set $pairs (i32.shr_u (local.get $L) (i32.const 1)))
+    (block $outputs
+      (loop $output
+        (br_if $outputs (i32.ge_u (local.get $j) (local.get $count)))
+        (local.set $a (i32.add (local.get $buf)
+          (i32.shl (i32.add (local.get $first) (i32.mul (local.get $j) (local.get $D))) (i32.const 3))))
+        (local.set $b (i32.add (local.get $a) (i32.shl (i32.sub (local.get $L) (i32.const 1)) (i32.const 3))))
+        (local.set $acc0 (v128.const f64x2 0 0))
+        (local.set $acc1 (v128.const f64x2 0 0))
+        (local.set $k (i32.const 0))
+        (local.set $t (local.get $h))
+        (block $pairsDone
+          (loop $pair
+            (br_if $pairsDone (i32.ge_u (i32.add (local.get $k) (i32.const 1)) (local.get $pairs)))
+            (local.set $acc0 (f64x2.add (local.get $acc0)
+              (f64x2.mul (v128.load64_splat align=8 (local.get $t))
+                (f64x2.add (f64x2.promote_low_f32x4 (v128.load64_zero align=4 (local.get $a))) (f64x2.promote_low_f32x4 (v128.load64_zero align=4 (local.get $b)))))))
+            (local.set $acc1 (f64x2.add (local.get $acc1)
+              (f64x2.mul (v128.load64_splat offset=8 align=8 (local.get $t))
+                (f64x2.add (f64x2.promote_low_f32x4 (v128.load64_zero offset=8 align=4 (local.get $a)))
+                  (f64x2.promote_low_f32x4 (v128.load64_zero align=4 (i32.sub (local.get $b) (i32.const 8))))))))
+            (local.set $k (i32.add (local.get $k) (i32.const 2)))
+            (local.set $t (i32.add (local.get $t) (i32.const 16)))
+            (local.set $a (i32.add (local.get $a) (i32.const 16)))
+            (local.set $b (i32.sub (local.get $b) (i32.const 16)))
+            (br $pair)))
+        (if (i32.lt_u (local.get $k) (local.get $pairs))
+          (then
+            (local.set $acc0 (f64x2.add (local.get $acc0)
+              (f64x2.mul (v128.load64_splat align=8 (local.get $t))
+                (f64x2.add (f64x2.promote_low_f32x4 (v128.load64_zero align=4 (local.get $a))) (f64x2.promote_low_f32x4 (v128.load64_zero align=4 (local.get $b)))))))
+            (local.set $t (i32.add (local.get $t) (i32.const 8)))
+            (local.set $a (i32.add (local.get $a) (i32.const 8)))))
+        (local.set $acc0 (f64x2.add (local.get $acc0) (local.get $acc1)))
+        (if (i32.and (local.get $L) (i32.const 1))
+          (then
+            (local.set $acc0 (f64x2.add (local.get $acc0)
+              (f64x2.mul (v128.load64_splat align=8 (i32.add (local.get $h) (i32.shl (local.get $pairs) (i32.const 3))))
+                (f64x2.promote_low_f32x4 (v128.load64_zero align=4 (local.get $a))))))))
+        (v128.store64_lane align=4 0
+          (i32.add (local.get $out) (i32.shl (local.get $j) (i32.const 3)))
+          (f32x4.demote_f64x2_zero (local.get $acc0)))
+        (local.set $j (i32.add (local.get $j) (i32.const 1)))
+        (br $output))))
 )

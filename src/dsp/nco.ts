@@ -13,6 +13,8 @@
  * output at each index does not depend on how the samples were split into calls.
  */
 
+import type { KernelArena } from "./chainKernels.js";
+
 const TABLE_LENGTH = 1024;
 const SPLIT = 134217729; // 2^27 + 1, Veltkamp's splitting constant for doubles
 
@@ -27,12 +29,17 @@ export class Nco {
   private readonly tableRe = new Float64Array(TABLE_LENGTH);
   private readonly tableIm = new Float64Array(TABLE_LENGTH);
   private nextSample: number;
+  private readonly arena: KernelArena | null;
+  // With an arena: the table there, 32 bytes an index: (cos, sin, −sin, cos) as float64.
+  private readonly tablePtr: number;
 
   /**
    * `frequencyHz` any finite value (Hz), `sampleRateHz` > 0, `startSample` the index of the first
    * sample the first `mix` call gets (a non-negative safe integer). Throws RangeError otherwise.
+   * With `arena`, a `mix` whose output lies in the arena runs the SIMD kernel (chainKernels.ts),
+   * to the same values.
    */
-  constructor(frequencyHz: number, sampleRateHz: number, startSample = 0) {
+  constructor(frequencyHz: number, sampleRateHz: number, startSample = 0, arena: KernelArena | null = null) {
     if (!Number.isFinite(frequencyHz)) throw new RangeError(`frequencyHz ${frequencyHz} is not finite`);
     if (!(Number.isFinite(sampleRateHz) && sampleRateHz > 0)) {
       throw new RangeError(`sampleRateHz ${sampleRateHz} is not a positive finite number`);
@@ -52,6 +59,16 @@ export class Nco {
       const a = -2 * Math.PI * fractionalCycles(r, this.ratioResidual, k);
       this.tableRe[k] = Math.cos(a);
       this.tableIm[k] = Math.sin(a);
+    }
+    this.arena = arena;
+    this.tablePtr = arena === null ? 0 : arena.alloc(32 * TABLE_LENGTH);
+    if (arena !== null) {
+      const t = arena.f64(this.tablePtr, 4 * TABLE_LENGTH);
+      for (let k = 0; k < TABLE_LENGTH; k++) {
+        const c = this.tableRe[k] as number;
+        const sn = this.tableIm[k] as number;
+        t.set([c, sn, -sn, c], 4 * k);
+      }
     }
   }
 
@@ -81,6 +98,9 @@ export class Nco {
     const y = out ?? new Float32Array(iq.length);
     if (y.length !== iq.length) throw new RangeError(`out length ${y.length} differs from iq length ${iq.length}`);
     const count = iq.length / 2;
+    const arena = this.arena !== null && this.arena.holds(y) ? this.arena : null;
+    // The kernel mixes in place: the input goes to the output first.
+    if (arena !== null && iq !== y) y.set(iq);
     let done = 0;
     while (done < count) {
       const n = this.nextSample + done;
@@ -88,7 +108,8 @@ export class Nco {
       const base = n - k0;
       const run = Math.min(TABLE_LENGTH - k0, count - done);
       const a = -2 * Math.PI * fractionalCycles(this.ratio, this.ratioResidual, base);
-      mixRun(iq, y, done, run, k0, Math.cos(a), Math.sin(a), this.tableRe, this.tableIm);
+      if (arena === null) mixRun(iq, y, done, run, k0, Math.cos(a), Math.sin(a), this.tableRe, this.tableIm);
+      else arena.mix(y.byteOffset + 8 * done, run, this.tablePtr + 32 * k0, Math.cos(a), Math.sin(a));
       done += run;
     }
     this.nextSample += count;

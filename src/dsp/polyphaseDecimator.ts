@@ -10,7 +10,11 @@
  * of the input into blocks gives the same outputs. After N inputs in all, ⌈N/D⌉ outputs have
  * been produced. Output m belongs to input time m·D; for linear-phase taps the filter delays the
  * signal by (L − 1)/2 input samples (`delaySamples`).
+ *
+ * With a KernelArena (chainKernels.ts) and symmetric taps, the buffers live in the arena and the
+ * dot products run in its SIMD kernel, to the same values as the JavaScript loop.
  */
+import type { KernelArena } from "./chainKernels.js";
 
 /** Real-tap FIR decimator over interleaved I,Q blocks with history carried between calls. */
 export class PolyphaseDecimator {
@@ -30,15 +34,24 @@ export class PolyphaseDecimator {
   private pending = 0;
   // With reuseOutput, the array every block's outputs are written to (grown when a block needs more).
   private output: Float32Array | null;
+  // The kernels' arena (symmetric taps only), and where the taps, the working buffer and the
+  // outputs sit in it (pointers, capacities in floats); `buffer` is then unused.
+  private readonly arena: KernelArena | null;
+  private readonly tapsPtr: number = 0;
+  private bufPtr = 0;
+  private bufFloats = 0;
+  private outPtr = 0;
+  private outFloats = 0;
 
   /**
    * `taps` real coefficients (at least one, all finite), `factor` a positive integer.
    * `reuseOutput` (default false): every call returns a view of one array of the decimator,
    * overwritten by the next call (for a caller that copies or consumes the outputs at once, so
    * that a long stream leaves no garbage behind); else a new array every call.
+   * `arena`: run the SIMD kernel there (symmetric taps; else it is not used).
    * Throws RangeError otherwise.
    */
-  constructor(taps: Float64Array, factor: number, reuseOutput = false) {
+  constructor(taps: Float64Array, factor: number, reuseOutput = false, arena: KernelArena | null = null) {
     if (taps.length < 1) throw new RangeError(`taps length ${taps.length} is not at least 1`);
     for (let k = 0; k < taps.length; k++) {
       if (!Number.isFinite(taps[k])) throw new RangeError(`taps[${k}] ${taps[k]} is not finite`);
@@ -55,8 +68,23 @@ export class PolyphaseDecimator {
     let symmetric = true;
     for (let k = 0; k < L; k++) if (taps[k] !== taps[L - 1 - k]) symmetric = false;
     this.symmetric = symmetric;
-    this.buffer = new Float32Array(2 * (L - 1) + 2 * 4096);
+    const floats = 2 * (L - 1) + 2 * 4096;
     this.output = reuseOutput ? new Float32Array(0) : null;
+    this.arena = symmetric ? arena : null;
+    if (this.arena === null) {
+      this.buffer = new Float32Array(floats);
+    } else {
+      this.buffer = new Float32Array(0);
+      this.tapsPtr = this.arena.alloc(8 * L);
+      this.arena.f64(this.tapsPtr, L).set(this.reversed);
+      this.bufPtr = this.arena.alloc(4 * floats);
+      this.bufFloats = floats;
+    }
+  }
+
+  /** The working buffer: the array, or a fresh view of it in the arena. */
+  private workingBuffer(): Float32Array {
+    return this.arena === null ? this.buffer : this.arena.f32(this.bufPtr, this.bufFloats);
   }
 
   /**
@@ -64,7 +92,7 @@ export class PolyphaseDecimator {
    * position again. The outputs after a reset are those of a new decimator given the same inputs.
    */
   reset(): void {
-    this.buffer.fill(0, 0, 2 * (this.tapCount - 1));
+    this.workingBuffer().fill(0, 0, 2 * (this.tapCount - 1));
     this.phase = 0;
     this.pending = 0;
   }
@@ -75,7 +103,15 @@ export class PolyphaseDecimator {
    */
   push(iq: Float32Array): Float32Array {
     if (iq.length % 2 !== 0) throw new RangeError(`iq length ${iq.length} is not even (interleaved I,Q)`);
-    this.beginBlock(iq.length / 2).set(iq);
+    const arena = this.arena;
+    if (arena !== null && arena.holds(iq)) {
+      // A view into the arena (the stage before's outputs) is detached if beginBlock grows it: taken again after.
+      const { byteOffset, length } = iq;
+      const into = this.beginBlock(length / 2);
+      into.set(arena.f32(byteOffset, length));
+    } else {
+      this.beginBlock(iq.length / 2).set(iq);
+    }
     return this.endBlock();
   }
 
@@ -90,6 +126,18 @@ export class PolyphaseDecimator {
     }
     const history = this.tapCount - 1;
     const total = history + sampleCount;
+    const arena = this.arena;
+    if (arena !== null) {
+      if (this.bufFloats < 2 * total) {
+        const floats = 2 * total + 2 * (total >> 1);
+        const ptr = arena.alloc(4 * floats);
+        arena.f32(ptr, 2 * history).set(arena.f32(this.bufPtr, 2 * history));
+        this.bufPtr = ptr;
+        this.bufFloats = floats;
+      }
+      this.pending = sampleCount;
+      return arena.f32(this.bufPtr + 8 * history, 2 * sampleCount);
+    }
     if (this.buffer.length < 2 * total) {
       const grown = new Float32Array(2 * total + 2 * (total >> 1));
       grown.set(this.buffer.subarray(0, 2 * history));
@@ -104,9 +152,10 @@ export class PolyphaseDecimator {
     const n = this.pending;
     this.pending = 0;
     const total = this.tapCount - 1 + n;
-    const buf = this.buffer;
     const D = this.factor;
     const outCount = this.phase < n ? Math.floor((n - 1 - this.phase) / D) + 1 : 0;
+    if (this.arena !== null) return this.endBlockInArena(this.arena, n, total, outCount);
+    const buf = this.buffer;
     const out = this.outputArray(2 * outCount);
     // Output j's newest input sits at buffer index history + phase + j·D; its oldest at phase + j·D.
     if (this.symmetric) {
@@ -117,6 +166,19 @@ export class PolyphaseDecimator {
     this.phase = outCount * D + this.phase - n;
     buf.copyWithin(0, 2 * n, 2 * total);
     return out;
+  }
+
+  /** endBlock with the buffers in the arena: the SIMD kernel; the outputs a view there (reuseOutput) or a copy. */
+  private endBlockInArena(arena: KernelArena, n: number, total: number, outCount: number): Float32Array {
+    if (this.outFloats < 2 * outCount) {
+      this.outFloats = 2 * outCount + 2 * (outCount >> 1);
+      this.outPtr = arena.alloc(4 * this.outFloats);
+    }
+    arena.symdots(this.bufPtr, this.phase, this.factor, outCount, this.tapsPtr, this.tapCount, this.outPtr);
+    this.phase = outCount * this.factor + this.phase - n;
+    arena.f32(this.bufPtr, 2 * total).copyWithin(0, 2 * n, 2 * total);
+    const out = arena.f32(this.outPtr, 2 * outCount);
+    return this.output === null ? out.slice() : out;
   }
 
   /** A new array of `length` values, or with reuseOutput a view of the decimator's own. */

@@ -98,6 +98,35 @@ describe("runPass1(meta, span)", () => {
     expect(threaded.health.iqGainImbalanceDb).toBeCloseTo(inline.health.iqGainImbalanceDb, 9);
   });
 
+  it("extracts a channel given before it in the same read: what a pass 2 of its own gives, to the bit, in one thread or two", async () => {
+    // The reference is runPass2's own read through one continuous ChannelExtractor; pass 1's
+    // blocks are extracted apart (ChannelExtractor.pushOwned) and put end to end.
+    const builtModule = (rel: string): Promise<unknown> => import(new URL(`../../dist/${rel}`, import.meta.url).href);
+    const built = (await builtModule("analysis/index.js")) as typeof import("../../src/analysis/index.js");
+    const builtPass2 = (await builtModule("analysis/pass2.js")) as typeof import("../../src/analysis/pass2.js");
+    const cap = (await builtModule("capture/index.js")) as typeof import("../../src/capture/index.js");
+    const rawPath = join(dir, "tone_channel_1Msps.cf32");
+    writeFileSync(rawPath, encodeSamples("cf32_le", capture(1_100_000, fs, -200_300, 0.1, 1e-4, 9)));
+    const source = await cap.openCapture(rawPath, {});
+    const { span } = cap.resolveSpan(source.meta);
+    const request = { offsetHz: -200_000, bandwidthHz: 25_000, maxSamples: 30_000, wholeSpan: { audioBandwidthHz: 3000, hold: false } };
+    const alone = await builtPass2.runPass2(source, span, request);
+    await source.close();
+    expect(alone.complete).toBe(false);
+    for (const workers of [0, 2]) {
+      const r = await built.runPass1(source.meta, span, { workers, blockSamples: 65_536, channel: request });
+      expect(r.workers).toBe(workers);
+      const beside = r.pass2 as NonNullable<typeof r.pass2>;
+      expect(beside.iq).toEqual(alone.iq);
+      expect(beside.inputSamples).toBe(span.sampleCount);
+      expect(beside.wholeSpan).toEqual(alone.wholeSpan);
+      expect(beside.warnings).toEqual(alone.warnings);
+      expect(beside.startS).toBe(alone.startS);
+    }
+    const without = await built.runPass1(source.meta, span, { workers: 0 });
+    expect(without.pass2).toBeNull();
+  });
+
   it("shortens an FFT longer than the span, with a warning (repairable setting, STYLE.md §6)", async () => {
     const p = join(dir, "short_1Msps.cf32");
     writeFileSync(p, encodeSamples("cf32_le", capture(3000, fs, 0, 0.1, 1e-4)));

@@ -206,3 +206,43 @@ describe("ChannelExtractor({ sampleRateHz: 2.4e6, offsetHz: 317e3, bandwidthHz: 
     expect(() => new ChannelExtractor({ sampleRateHz: 1e6, offsetHz: Number.NaN, bandwidthHz: 1e3 })).toThrow(/offsetHz NaN/);
   });
 });
+
+describe("ChannelExtractor's SIMD kernels (chainKernels.ts)", () => {
+  // The kernels do the JavaScript loops' float64 operations in the same order: the outputs are
+  // equal to the bit (IEEE 754 rounding of the same operations), for one stage or several, any
+  // block partition.
+  const cases = [
+    { sampleRateHz: FS, offsetHz: OFFSET, bandwidthHz: B },
+    { sampleRateHz: FS, offsetHz: -411_111.5, bandwidthHz: 12_500 },
+    { sampleRateHz: 250_000, offsetHz: 20_000, bandwidthHz: 16_000 },
+    { sampleRateHz: 48_000, offsetHz: 1000, bandwidthHz: 12_000 },
+  ];
+  it.each(cases)("give the JavaScript loops' outputs to the bit: %o", (options) => {
+    const x = new Float32Array(2 * 150_000);
+    complexNoise(new SeededRandom(11), x, 1);
+    const simd = new ChannelExtractor({ ...options, kernels: true });
+    const plain = new ChannelExtractor({ ...options, kernels: false });
+    expect(simd.stageTapCounts).toEqual(plain.stageTapCounts);
+    expect(extract(simd, x, 12)).toEqual(extract(plain, x, 13));
+  });
+
+  it("are checked above on one stage and several (even tap counts: polyphaseDecimator.test.ts)", () => {
+    const counts = cases.map((o) => new ChannelExtractor(o).stageTapCounts);
+    expect(counts.some((c) => c.length === 1)).toBe(true);
+    expect(counts.some((c) => c.length >= 2)).toBe(true);
+  });
+
+  it("keep their outputs when the arena grows under a long block (views taken again)", () => {
+    const x = new Float32Array(2 * 400_000);
+    complexNoise(new SeededRandom(12), x, 1);
+    const options = { sampleRateHz: FS, offsetHz: OFFSET, bandwidthHz: B, reuseOutput: true };
+    const simd = new ChannelExtractor({ ...options, kernels: true });
+    const plain = new ChannelExtractor({ ...options, kernels: false });
+    const a = simd.push(x.subarray(0, 2 * 1000)).slice();
+    const b = simd.push(x.subarray(2 * 1000)).slice();
+    const c = plain.push(x.subarray(0, 2 * 1000)).slice();
+    const d = plain.push(x.subarray(2 * 1000)).slice();
+    expect(a).toEqual(c);
+    expect(b).toEqual(d);
+  });
+});

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { Nco } from "../../src/dsp/index.js";
+import { KernelArena } from "../../src/dsp/chainKernels.js";
 import { randomPartition } from "./blocks.js";
 
 /**
@@ -49,6 +50,21 @@ describe("Nco(f, fs, startSample).mix(iq)", () => {
     const one = new Nco(fHz, Number(fsHz), 12345).mix(x);
     expect(mixInBlocks(new Nco(fHz, Number(fsHz), 12345), x, 3)).toEqual(one);
     expect(mixInBlocks(new Nco(fHz, Number(fsHz), 12345), x, 99)).toEqual(one);
+  });
+
+  it("in the SIMD kernel (output in its arena) moves the exact tone to 0 Hz as well, with the JavaScript loop's samples to the bit", () => {
+    const count = 5000;
+    const start = 2 ** 40;
+    const x = exactTone(p, q, fsHz, BigInt(start), count);
+    const arena = new KernelArena();
+    const simd = new Nco(fHz, Number(fsHz), start, arena);
+    const out = arena.f32(arena.alloc(8 * count), 2 * count);
+    simd.mix(x.subarray(0, 2 * 1234), out.subarray(0, 2 * 1234));
+    simd.mix(x.subarray(2 * 1234), out.subarray(2 * 1234));
+    let worst = 0;
+    for (let k = 0; k < count; k++) worst = Math.max(worst, Math.abs(Math.atan2(out[2 * k + 1] as number, out[2 * k] as number)));
+    expect(worst).toBeLessThan(1e-6);
+    expect(out).toEqual(new Nco(fHz, Number(fsHz), start).mix(x));
   });
 
   it("preserves magnitude: |y| = |x| to float32 rounding (a unit-modulus phasor)", () => {

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { designLowpass, PolyphaseDecimator } from "../../src/dsp/index.js";
+import { KernelArena } from "../../src/dsp/chainKernels.js";
 import { SeededRandom } from "../../src/scenario/index.js";
 import { randomPartition } from "./blocks.js";
 
@@ -24,16 +25,20 @@ describe("PolyphaseDecimator(taps, D).push(iq)", () => {
   const x = new Float32Array(2 * 3001).map(() => rng.gaussian());
   const random = new Float64Array(37).map(() => rng.gaussian() / 6);
   const symmetric = designLowpass({ cutoffHz: 0.05, transitionHz: 0.1, stopbandDb: 70, sampleRateHz: 1 });
-  const cases: Array<[string, Float64Array]> = [["random taps", random], ["symmetric taps", symmetric], ["one tap", new Float64Array([0.75])]];
+  // An even symmetric length (the Kaiser designs are odd): the kernel's pairs without a middle tap.
+  const evenSymmetric = new Float64Array(36).map((_, k) => (random[Math.min(k, 35 - k)] as number));
+  const cases: Array<[string, Float64Array]> = [
+    ["random taps", random], ["symmetric taps", symmetric], ["even symmetric taps", evenSymmetric], ["one tap", new Float64Array([0.75])],
+  ];
 
   for (const [name, h] of cases) {
-    for (const D of [1, 3, 8]) {
-      it(`${name}, D = ${D}: equals convolution then downsampling for random block partitions`, () => {
+    for (const [D, arena] of [[1, false], [3, false], [8, false], [3, true], [8, true]] as const) {
+      it(`${name}, D = ${D}${arena ? ", SIMD kernel" : ""}: equals convolution then downsampling for random block partitions`, () => {
         const ref = convolveThenDownsample(h, x, D);
         let scale = 0;
         for (let k = 0; k < h.length; k++) scale += Math.abs(h[k] as number);
         for (const seed of [1, 2, 3]) {
-          const dec = new PolyphaseDecimator(h, D);
+          const dec = new PolyphaseDecimator(h, D, false, arena ? new KernelArena() : null);
           const parts: Float32Array[] = [];
           for (const [a, b] of randomPartition(3001, seed === 3 ? 5 : 400, seed)) parts.push(dec.push(x.subarray(2 * a, 2 * b)));
           parts.push(dec.push(new Float32Array(0)));
@@ -46,6 +51,16 @@ describe("PolyphaseDecimator(taps, D).push(iq)", () => {
       });
     }
   }
+
+  it("in the SIMD kernel gives the JavaScript loop's outputs to the bit (the same operations in the same order)", () => {
+    for (const h of [symmetric, evenSymmetric]) {
+      const plain = new PolyphaseDecimator(h, 3);
+      const simd = new PolyphaseDecimator(h, 3, true, new KernelArena());
+      for (const [a, b] of randomPartition(3001, 700, 4)) {
+        expect(simd.push(x.subarray(2 * a, 2 * b))).toEqual(plain.push(x.subarray(2 * a, 2 * b)));
+      }
+    }
+  });
 
   it("delaySamples is (L − 1)/2: a symmetric filter delays an impulse's peak by that many input samples", () => {
     const h = designLowpass({ cutoffHz: 0.1, transitionHz: 0.1, stopbandDb: 60, sampleRateHz: 1 });
