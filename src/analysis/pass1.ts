@@ -17,7 +17,7 @@ import { noiseFloor, type HealthFigures, type Spectrogram, type WelchPsd } from 
 import { formatInfo } from "../capture/sampleFormat.js";
 import { Pass1Engine, prefixSamples, type ChannelChunk, type Pass1Config } from "./pass1Engine.js";
 import { Pass2Collector, type Pass2Request, type Pass2Result } from "./pass2.js";
-import { stateBuffers, type Pass1Figures, type WorkerReply, type WorkerRequest } from "./workerMessages.js";
+import { channelChunk, stateBuffers, type Pass1Figures, type WorkerReply, type WorkerRequest } from "./workerMessages.js";
 import { spectrumPeak, type SpectrumPeak } from "./spectrumPeak.js";
 
 export interface Pass1Options {
@@ -80,7 +80,10 @@ export async function runPass1(meta: CaptureMeta, span: SampleSpan, options: Pas
   const config = planPass1(meta, span, options, warnings, collector);
   const workerCount = chooseWorkers(options.workers, span.sampleCount, config.maxBlockSamples);
   const assembler = collector === null ? null : new ChannelAssembler(collector);
-  const onChannel = (chunk: ChannelChunk | null): void => { if (chunk !== null) assembler?.add(chunk); };
+  const onChannel: ChannelSink = (chunk, release) => {
+    if (chunk !== null && assembler !== null) assembler.add(chunk, release);
+    else release();
+  };
   const sink = workerCount > 0 ? new WorkerSink(config, workerCount, onChannel) : new InlineSink(config, onChannel);
   const handle = await open(meta.dataPath, "r");
   let sha256: string;
@@ -109,20 +112,24 @@ export async function runPass1(meta: CaptureMeta, span: SampleSpan, options: Pas
 }
 
 /**
- * Puts the blocks' channel samples end to end: blocks finish in any order across workers,
- * each chunk waits until the ones before it are in (at most the blocks in flight: bounded).
+ * Puts the blocks' channel samples end to end: blocks finish in any order across workers; a
+ * chunk that comes early waits until the ones before it are in, in the block buffer it came in
+ * (held back from the pool until then: nothing is copied, and the waiting is bounded by the
+ * blocks in flight); one in order is used at once, where it lies.
  */
 class ChannelAssembler {
-  private readonly waiting = new Map<number, Float32Array>();
+  private readonly waiting = new Map<number, { iq: Float32Array; release: () => void }>();
   private next = 0;
   constructor(private readonly collector: Pass2Collector) {}
 
-  add(chunk: ChannelChunk): void {
-    this.waiting.set(chunk.firstOutput, chunk.iq);
-    for (let iq = this.waiting.get(this.next); iq !== undefined; iq = this.waiting.get(this.next)) {
+  /** Takes a chunk; `release` is called once its samples are used (at once, or when its turn comes). */
+  add(chunk: ChannelChunk, release: () => void): void {
+    this.waiting.set(chunk.firstOutput, { iq: chunk.iq, release });
+    for (let w = this.waiting.get(this.next); w !== undefined; w = this.waiting.get(this.next)) {
       this.waiting.delete(this.next);
-      this.collector.push(iq);
-      this.next += iq.length / 2;
+      this.collector.push(w.iq);
+      this.next += w.iq.length / 2;
+      w.release();
     }
   }
 
@@ -263,6 +270,9 @@ async function readFully(handle: FileHandle, into: Uint8Array, offset: number, l
   }
 }
 
+/** Takes a block's channel samples (or null) and calls `release` once they are used: the block's buffer may then be reused. */
+type ChannelSink = (chunk: ChannelChunk | null, release: () => void) => void;
+
 /** Where blocks go: this thread, or a pool of workers. */
 interface BlockSink {
   acquire(): Promise<ArrayBuffer>;
@@ -281,7 +291,7 @@ class InlineSink implements BlockSink {
   private readonly engine: Pass1Engine;
   private readonly buffers: ArrayBuffer[];
   private turn = 0;
-  constructor(config: Pass1Config, private readonly onChannel: (chunk: ChannelChunk | null) => void) {
+  constructor(config: Pass1Config, private readonly onChannel: ChannelSink) {
     this.engine = new Pass1Engine(config);
     this.buffers = [new ArrayBuffer(blockBytes(config)), new ArrayBuffer(blockBytes(config))];
   }
@@ -290,7 +300,10 @@ class InlineSink implements BlockSink {
     return this.buffers[this.turn] as ArrayBuffer;
   }
   submit(buffer: ArrayBuffer, byteOffset: number, byteLength: number, prefixFrames: number, ownedStart: number): void {
-    this.onChannel(this.engine.processBlock(new Uint8Array(buffer, byteOffset, byteLength), prefixFrames, ownedStart));
+    // Blocks come in order here, so the chunk (a view of the extractor's array) is used at once.
+    let used = false;
+    this.onChannel(this.engine.processBlock(new Uint8Array(buffer, byteOffset, byteLength), prefixFrames, ownedStart), () => { used = true; });
+    if (!used) throw new Error("pass 1's channel samples came out of order in one thread");
   }
   async finish(): Promise<{ psd: WelchPsd; spectrogram: Spectrogram; health: HealthFigures }> {
     return this.engine.finish();
@@ -309,7 +322,7 @@ class WorkerSink implements BlockSink {
   private readonly waiting: ((b: ArrayBuffer) => void)[] = [];
   private failure: Error | null = null;
 
-  constructor(config: Pass1Config, count: number, onChannel: (chunk: ChannelChunk | null) => void) {
+  constructor(config: Pass1Config, count: number, onChannel: ChannelSink) {
     const bytes = blockBytes(config);
     for (let k = 0; k < 2 * count + 1; k++) this.free.push(new ArrayBuffer(bytes));
     for (let k = 0; k < count; k++) {
@@ -317,12 +330,13 @@ class WorkerSink implements BlockSink {
       worker.on("message", (reply: WorkerReply) => {
         if (reply.type === "done") {
           this.inFlight[k] = (this.inFlight[k] as number) - 1;
+          // The buffer goes back to the pool once its channel samples are used.
           try {
-            onChannel(reply.channel);
+            onChannel(reply.channel === null ? null : channelChunk(reply.channel, reply.buffer), () => this.release(reply.buffer));
           } catch (e) {
             this.fail(e);
+            this.release(reply.buffer);
           }
-          this.release(reply.buffer);
         }
       });
       worker.on("error", (e) => this.fail(e));

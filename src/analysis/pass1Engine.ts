@@ -92,8 +92,8 @@ export class Pass1Engine {
   /**
    * Processes one block: `raw` holds `prefixFrames` frames that precede the block's own samples
    * (already counted by the previous block) and then the block's own frames, whose first sample
-   * has span index `ownedStart`. Returns the block's channel samples (a new array), or null
-   * without a channel.
+   * has span index `ownedStart`. Returns the block's channel samples (a view of the extractor's
+   * array, valid until the next block), or null without a channel.
    */
   processBlock(raw: Uint8Array, prefixFrames: number, ownedStart: number): ChannelChunk | null {
     const prefixBytes = prefixFrames * this.frameBytes;
@@ -108,7 +108,7 @@ export class Pass1Engine {
     this.health.push(iq, dataStart, ownedStart);
     this.welch.push(iq, dataStart, ownedStart);
     this.spectrogram.push(iq, dataStart, ownedStart);
-    return channel === null ? null : { firstOutput: channel.firstOutput, iq: channel.iq.slice() };
+    return channel;
   }
 
   snapshot(): Pass1EngineState {

@@ -5,7 +5,7 @@
  */
 import { parentPort, workerData } from "node:worker_threads";
 import { Pass1Engine, type Pass1Config } from "./pass1Engine.js";
-import { figureBuffers, stateBuffers, type WorkerRequest, type WorkerReply } from "./workerMessages.js";
+import { channelReply, figureBuffers, stateBuffers, type WorkerRequest, type WorkerReply } from "./workerMessages.js";
 
 const port = parentPort;
 if (port === null) throw new Error("pass1Worker must run in a worker thread");
@@ -14,9 +14,9 @@ const engine = new Pass1Engine(workerData as Pass1Config);
 port.on("message", (message: WorkerRequest) => {
   if (message.type === "block") {
     const raw = new Uint8Array(message.buffer, message.byteOffset, message.byteLength);
-    const channel = engine.processBlock(raw, message.prefixFrames, message.ownedStart);
+    const channel = channelReply(engine.processBlock(raw, message.prefixFrames, message.ownedStart), message.buffer);
     const reply: WorkerReply = { type: "done", buffer: message.buffer, channel };
-    port.postMessage(reply, channel === null ? [message.buffer] : [message.buffer, channel.iq.buffer as ArrayBuffer]);
+    port.postMessage(reply, channel?.iq == null ? [message.buffer] : [message.buffer, channel.iq.buffer as ArrayBuffer]);
   } else if (message.type === "finish") {
     // The engine is done: its state is copied out of the engine's memory once and transferred.
     const state = engine.snapshot();

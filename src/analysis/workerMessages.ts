@@ -23,8 +23,32 @@ export type WorkerRequest =
    * `discard` are buffers handed over only to be freed with the worker. */
   | { readonly type: "mergeAndFinish"; readonly states: readonly Pass1EngineState[]; readonly discard: readonly ArrayBuffer[] };
 
+export interface ChannelReply {
+  readonly firstOutput: number;
+  readonly floats: number;
+  readonly iq: Float32Array | null;
+}
+
+/**
+ * The reply of a block: its channel samples go back in the block's own buffer (its raw bytes are
+ * decoded and no longer needed), so that a block allocates nothing; a copy where they do not fit.
+ */
+export function channelReply(chunk: ChannelChunk | null, buffer: ArrayBuffer): ChannelReply | null {
+  if (chunk === null) return null;
+  const floats = chunk.iq.length;
+  if (4 * floats > buffer.byteLength) return { firstOutput: chunk.firstOutput, floats, iq: chunk.iq.slice() };
+  new Float32Array(buffer, 0, floats).set(chunk.iq);
+  return { firstOutput: chunk.firstOutput, floats, iq: null };
+}
+
+/** The chunk a reply carries: a view into the block's buffer (valid until the buffer is reused) or its copy. */
+export function channelChunk(reply: ChannelReply, buffer: ArrayBuffer): ChannelChunk {
+  return { firstOutput: reply.firstOutput, iq: reply.iq ?? new Float32Array(buffer, 0, reply.floats) };
+}
+
 export type WorkerReply =
-  | { readonly type: "done"; readonly buffer: ArrayBuffer; readonly channel: ChannelChunk | null }
+  /** `channel`: the block's channel samples, in `buffer` from byte 0 on (`floats` floats), or in `iq` where they do not fit. */
+  | { readonly type: "done"; readonly buffer: ArrayBuffer; readonly channel: ChannelReply | null }
   | { readonly type: "state"; readonly state: Pass1EngineState }
   | { readonly type: "figures"; readonly figures: Pass1Figures };
 

@@ -77,6 +77,8 @@ export class ChannelExtractor {
   readonly memorySamples: number;
   private readonly nco: Nco;
   private readonly stages: readonly PolyphaseDecimator[];
+  // pushOwned's outputs, reused.
+  private owned = new Float32Array(0);
 
   /** Throws RangeError for a non-positive rate or bandwidth, a bandwidth above the rate, or a non-finite offset. */
   constructor(options: ChannelExtractorOptions) {
@@ -167,7 +169,7 @@ export class ChannelExtractor {
    * phase on the index alone (Nco), so the values are the stream's to the bit. Blocks can so be
    * extracted apart (in worker threads) and put end to end. Needs s0 ≥ dataStart:
    * ownedStart − dataStart ≥ min(ownedStart, warmupSamples). `iq` interleaved I,Q; the result
-   * is a view with reuseOutput, as for `push`.
+   * is a view of an array of the extractor's, valid until the next pushOwned.
    */
   pushOwned(iq: Float32Array, dataStart: number, ownedStart: number): { firstOutput: number; iq: Float32Array } {
     const D = this.decimation;
@@ -177,11 +179,26 @@ export class ChannelExtractor {
     }
     this.nco.seek(s0);
     for (const stage of this.stages) stage.reset();
-    const y = this.push(iq.subarray(2 * (s0 - dataStart)));
+    // In pieces, so that the filters' buffers stay the size of a piece whatever the block's.
+    const end = iq.length / 2;
+    let count = 0;
+    for (let p = s0 - dataStart; p < end; p += OWNED_PIECE_SAMPLES) {
+      const y = this.push(iq.subarray(2 * p, 2 * Math.min(p + OWNED_PIECE_SAMPLES, end)));
+      if (this.owned.length < 2 * count + y.length) {
+        const grown = new Float32Array(2 * (2 * count + y.length));
+        grown.set(this.owned.subarray(0, 2 * count));
+        this.owned = grown;
+      }
+      this.owned.set(y, 2 * count);
+      count += y.length / 2;
+    }
     const firstOutput = Math.ceil(ownedStart / D);
-    return { firstOutput, iq: y.subarray(2 * (firstOutput - s0 / D)) };
+    return { firstOutput, iq: this.owned.subarray(2 * (firstOutput - s0 / D), 2 * count) };
   }
 }
+
+/** Input samples pushOwned pushes at a time. */
+const OWNED_PIECE_SAMPLES = 65_536;
 
 /** True when n has no prime factor above 7. */
 function isSevenSmooth(n: number): boolean {
