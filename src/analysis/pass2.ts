@@ -97,10 +97,16 @@ export class Pass2Collector {
   private kept = 0;
   private skipped = 0;
 
-  /** `readWhole`: the span is read to its end even without the whole-span stage (another stage reads beside). */
-  constructor(private readonly sampleRateHz: number, private readonly span: SampleSpan, private readonly options: Pass2Request, readWhole = false) {
+  /**
+   * `readWhole`: the span is read to its end even without the whole-span stage (another stage
+   * reads beside). `extracts`: false when the samples come from elsewhere (pass 1's workers), so
+   * that the extractor, kept for its parameters, sets up no kernels.
+   */
+  constructor(private readonly sampleRateHz: number, private readonly span: SampleSpan, private readonly options: Pass2Request, readWhole = false, extracts = true) {
     // Blocks and the extractor's outputs are reused arrays (copied into `out` at once): no garbage a block.
-    const extractor = new ChannelExtractor({ sampleRateHz, offsetHz: options.offsetHz, bandwidthHz: options.bandwidthHz, reuseOutput: true });
+    const extractor = new ChannelExtractor({
+      sampleRateHz, offsetHz: options.offsetHz, bandwidthHz: options.bandwidthHz, reuseOutput: true, ...(extracts ? {} : { kernels: false }),
+    });
     this.extractor = extractor;
     const maxSamples = options.maxSamples ?? PASS2_DEFAULTS.maxSamples;
     const fsOut = extractor.outputRateHz;
