@@ -184,6 +184,9 @@ function planPass1(meta: CaptureMeta, span: SampleSpan, options: Pass1Options, w
 
 const WORKER_URL = new URL("./pass1Worker.js", import.meta.url);
 
+/** Young-generation size of a pass-1 worker's heap, MiB (see WorkerSink). */
+const WORKER_YOUNG_GENERATION_MIB = 2;
+
 function chooseWorkers(requested: number | "auto" | undefined, samples: number, blockSamples: number): number {
   // The worker script exists only in the compiled build (dist/); from sources, run inline.
   if (!existsSync(fileURLToPath(WORKER_URL))) return 0;
@@ -326,7 +329,9 @@ class WorkerSink implements BlockSink {
     const bytes = blockBytes(config);
     for (let k = 0; k < 2 * count + 1; k++) this.free.push(new ArrayBuffer(bytes));
     for (let k = 0; k < count; k++) {
-      const worker = new Worker(WORKER_URL, { workerData: config });
+      // A worker's garbage is a few small objects a block: a 2 MiB young generation (V8's default
+      // is several times that) is plenty and takes 5-10 MiB off the peak RSS of pass 1 (measured).
+      const worker = new Worker(WORKER_URL, { workerData: config, resourceLimits: { maxYoungGenerationSizeMb: WORKER_YOUNG_GENERATION_MIB } });
       worker.on("message", (reply: WorkerReply) => {
         if (reply.type === "done") {
           this.inFlight[k] = (this.inFlight[k] as number) - 1;
