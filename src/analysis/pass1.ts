@@ -2,8 +2,9 @@
  * Pass 1: one streaming sweep over a capture. Reads the data file once, front to back: every
  * byte goes into the SHA-256, and the bytes of the analysed span are cut into blocks (each with
  * an overlap prefix) for the Welch PSD, the spectrogram rows and the health statistics, in up to
- * two worker threads. Memory: a fixed pool of block buffers plus the accumulators, O(FFT length ×
- * spectrogram rows), never O(capture length). See docs/methods.md and docs/architecture.md.
+ * two worker threads; with `channel`, also each block's channel (pass 2 in the same read). Memory:
+ * a fixed pool of block buffers plus the accumulators, O(FFT length × spectrogram rows), never
+ * O(capture length). See docs/methods.md and docs/architecture.md.
  */
 import { createHash, type Hash } from "node:crypto";
 import { existsSync } from "node:fs";

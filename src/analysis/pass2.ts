@@ -7,6 +7,10 @@
  * few times that); a longer span is measured over its first
  * `maxSamples` decimated samples, with a warning.
  *
+ * Pass 1 can do the same in its own read when the channel is known before it (Pass1Options.channel:
+ * its workers extract each block's channel, and a Pass2Collector here takes the samples in order);
+ * runPass2 is the second read otherwise.
+ *
  * With `wholeSpan`, the same read goes on to the end of the span and every channel block also
  * feeds the whole-span accumulators (wholeSpan.ts: carrier, peak deviations with their times,
  * Welch PSD, max-hold spectrum), which keep no record: the memory bound is unchanged.
