@@ -124,9 +124,10 @@ export class SpectrogramAccumulator {
     const frames = this.frameCount;
     if (last <= firstFrame) return;
     const engine = this.engine;
+    const x = engine.staged(iq);
     for (let k = firstFrame; k < last; k++) {
       const row = Math.floor((k * rows) / frames);
-      engine.loadWindowed(iq, k * l - dataStart, this.frameWindow);
+      engine.loadWindowed(x, k * l - dataStart, this.frameWindow);
       engine.forward();
       engine.addPowerFloat(this.powerSum, this.powerMax, row * l);
       this.framesPerRow[row] = (this.framesPerRow[row] as number) + 1;

@@ -117,9 +117,10 @@ export class SpectrumHoldAccumulator {
     const n = checkBlock(iq, dataStart, ownedStart);
     const { firstFrame, frameCount } = framesInBlock(this.grid, dataStart, n, ownedStart);
     const h = this.grid.hopLength;
+    const x = frameCount > 0 ? this.engine.staged(iq) : iq;
     for (let f = 0; f < frameCount; f++) {
       const frame = firstFrame + f;
-      this.engine.loadWindowed(iq, frame * h - dataStart, this.frameWindow);
+      this.engine.loadWindowed(x, frame * h - dataStart, this.frameWindow);
       this.engine.forward();
       this.addFrame(frame);
     }
