@@ -12,6 +12,7 @@
  */
 import { fastFft, naturalBinIndex, naturalToSlots, slotsToNatural, type FastFft, type FloatStore, type FrameWindow } from "./fft.js";
 import { checkBlock, frameGrid, framesInBlock, type FrameGrid } from "./frameGrid.js";
+import { framesPerStage } from "./framePower.js";
 import { windowCoefficients, windowPowerSum, type WindowName } from "./windows.js";
 
 /** Spectrogram rows. Row-major rowCount × fftLength, row 0 earliest, centred bin order, FS²/Hz. */
@@ -124,13 +125,18 @@ export class SpectrogramAccumulator {
     const frames = this.frameCount;
     if (last <= firstFrame) return;
     const engine = this.engine;
-    const x = engine.staged(iq);
-    for (let k = firstFrame; k < last; k++) {
-      const row = Math.floor((k * rows) / frames);
-      engine.loadWindowed(x, k * l - dataStart, this.frameWindow);
-      engine.forward();
-      engine.addPowerFloat(this.powerSum, this.powerMax, row * l);
-      this.framesPerRow[row] = (this.framesPerRow[row] as number) + 1;
+    const group = framesPerStage(l, l);
+    for (let k0 = firstFrame; k0 < last; k0 += group) {
+      const k1 = Math.min(last, k0 + group);
+      const a = k0 * l - dataStart;
+      const x = engine.staged(iq.subarray(2 * a, 2 * (k1 * l - dataStart)));
+      for (let k = k0; k < k1; k++) {
+        const row = Math.floor((k * rows) / frames);
+        engine.loadWindowed(x, k * l - dataStart - a, this.frameWindow);
+        engine.forward();
+        engine.addPowerFloat(this.powerSum, this.powerMax, row * l);
+        this.framesPerRow[row] = (this.framesPerRow[row] as number) + 1;
+      }
     }
   }
 

@@ -23,6 +23,7 @@
  */
 import { fastFft, toCentredOrder, type FastFft, type FrameWindow } from "./fft.js";
 import { checkBlock, frameGrid, framesInBlock, type FrameGrid } from "./frameGrid.js";
+import { framesPerStage } from "./framePower.js";
 import { enbwBins, windowCoefficients, type WindowName } from "./windows.js";
 
 /** Options of a SpectrumHoldAccumulator. Defaults: hop floor(L/2), window "hann". */
@@ -117,12 +118,17 @@ export class SpectrumHoldAccumulator {
     const n = checkBlock(iq, dataStart, ownedStart);
     const { firstFrame, frameCount } = framesInBlock(this.grid, dataStart, n, ownedStart);
     const h = this.grid.hopLength;
-    const x = frameCount > 0 ? this.engine.staged(iq) : iq;
-    for (let f = 0; f < frameCount; f++) {
-      const frame = firstFrame + f;
-      this.engine.loadWindowed(x, frame * h - dataStart, this.frameWindow);
-      this.engine.forward();
-      this.addFrame(frame);
+    const length = this.frameWindow.length;
+    const group = framesPerStage(length, h);
+    for (let f0 = 0; f0 < frameCount; f0 += group) {
+      const g = Math.min(group, frameCount - f0);
+      const a = (firstFrame + f0) * h - dataStart;
+      const x = this.engine.staged(iq.subarray(2 * a, 2 * (a + (g - 1) * h + length)));
+      for (let f = 0; f < g; f++) {
+        this.engine.loadWindowed(x, f * h, this.frameWindow);
+        this.engine.forward();
+        this.addFrame(firstFrame + f0 + f);
+      }
     }
     this.frames += frameCount;
   }

@@ -105,7 +105,7 @@ export class WelchAccumulator {
     const { firstFrame, frameCount } = framesInBlock(this.grid, dataStart, n, ownedStart);
     if (frameCount === 0) return;
     const h = this.grid.hopLength;
-    accumulateFrames(this.engine, this.engine.staged(iq), firstFrame * h - dataStart, frameCount, h, this.frameWindow, this.powerSum, this.powerMax, 0);
+    accumulateFrames(this.engine, iq, firstFrame * h - dataStart, frameCount, h, this.frameWindow, this.powerSum, this.powerMax, 0);
     this.segmentCount += frameCount;
   }
 
