@@ -485,10 +485,6 @@ export function minimumChannelWidthHz(sampleRateHz: number, spanS: number): numb
 /** Fewest symbols a span must hold for a symbol rate to be measured or used (pskQamRecovery.ts needs 64). */
 export const MIN_SYMBOLS = 64;
 
-/**
- * Checks the options against the capture's metadata and the span, before any sample is read
- * (measureCommand calls it right after opening the capture): UsageError naming the option.
- */
 /** The pass 2 measureEmission runs for the channel offsetHz ± widthHz/2. */
 function pass2Request(offsetHz: number, widthHz: number, options: MeasureEmissionOptions): Pass2Request {
   const audioBandwidthHz = options.audioBandwidthHz ?? MEASURE_DEFAULTS.audioBandwidthHz;
@@ -514,6 +510,10 @@ function pass2FromPass1(pass1: Pass1Result, offsetHz: number, widthHz: number, o
   return p;
 }
 
+/**
+ * Checks the options against the capture's metadata and the span, before any sample is read
+ * (measureCommand calls it right after opening the capture): UsageError naming the option.
+ */
 export function checkMeasureOptions(options: MeasureEmissionOptions, meta: CaptureMeta, span: SampleSpan): void {
   const fs = meta.sampleRateHz;
   const spanS = span.sampleCount / fs;
