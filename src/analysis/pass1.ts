@@ -77,7 +77,7 @@ export interface Pass1Result {
 /** Runs pass 1 over `span` of the capture described by `meta`. */
 export async function runPass1(meta: CaptureMeta, span: SampleSpan, options: Pass1Options = {}): Promise<Pass1Result> {
   const warnings: string[] = [];
-  const collector = options.channel === undefined ? null : new Pass2Collector(meta.sampleRateHz, span, options.channel, false, false);
+  const collector = options.channel === undefined ? null : new Pass2Collector(meta.sampleRateHz, span, options.channel, { extracts: false });
   const config = planPass1(meta, span, options, warnings, collector);
   const workerCount = chooseWorkers(options.workers, span.sampleCount, config.maxBlockSamples);
   const assembler = collector === null ? null : new ChannelAssembler(collector);

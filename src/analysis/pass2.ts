@@ -67,7 +67,7 @@ export type Pass2Request = Pick<Pass2Options, "offsetHz" | "bandwidthHz" | "maxS
 
 export async function runPass2(source: CaptureSource, span: SampleSpan, options: Pass2Options): Promise<Pass2Result> {
   const fs = source.meta.sampleRateHz;
-  const collector = new Pass2Collector(fs, span, options, options.onInputBlock !== undefined);
+  const collector = new Pass2Collector(fs, span, options, { readWhole: options.onInputBlock !== undefined });
   const inputNeeded = collector.inputNeeded;
   let read = 0;
   const blockSamples = options.blockSamples ?? PASS2_DEFAULTS.blockSamples;
@@ -96,23 +96,30 @@ export class Pass2Collector {
   private readonly skip: number;
   private readonly keep: number;
   private readonly expected: number;
+  private readonly maxSamples: number;
   private readonly out: Float32Array;
   private readonly readsWhole: boolean;
   private kept = 0;
   private skipped = 0;
 
   /**
-   * `readWhole`: the span is read to its end even without the whole-span stage (another stage
-   * reads beside). `extracts`: false when the samples come from elsewhere (pass 1's workers), so
-   * that the extractor, kept for its parameters, sets up no kernels.
+   * `how.readWhole`: the span is read to its end even without the whole-span stage (another stage
+   * reads beside). `how.extracts`: false when the samples come from elsewhere (pass 1's workers),
+   * so that the extractor, kept for its parameters, sets up no kernels.
    */
-  constructor(private readonly sampleRateHz: number, private readonly span: SampleSpan, private readonly options: Pass2Request, readWhole = false, extracts = true) {
+  constructor(
+    private readonly sampleRateHz: number,
+    private readonly span: SampleSpan,
+    private readonly options: Pass2Request,
+    how: { readonly readWhole?: boolean; readonly extracts?: boolean } = {},
+  ) {
     // Blocks and the extractor's outputs are reused arrays (copied into `out` at once): no garbage a block.
     const extractor = new ChannelExtractor({
-      sampleRateHz, offsetHz: options.offsetHz, bandwidthHz: options.bandwidthHz, reuseOutput: true, ...(extracts ? {} : { kernels: false }),
+      sampleRateHz, offsetHz: options.offsetHz, bandwidthHz: options.bandwidthHz, reuseOutput: true, kernels: how.extracts === false ? false : undefined,
     });
     this.extractor = extractor;
     const maxSamples = options.maxSamples ?? PASS2_DEFAULTS.maxSamples;
+    this.maxSamples = maxSamples;
     const fsOut = extractor.outputRateHz;
     // The first outputs hold the filters' start-up transient: skip one filter delay.
     this.skip = Math.ceil(extractor.delayS * fsOut);
@@ -125,7 +132,7 @@ export class Pass2Collector {
       offsetHz: options.offsetHz,
       bandwidthHz: options.bandwidthHz,
     });
-    this.readsWhole = this.whole !== null || readWhole;
+    this.readsWhole = this.whole !== null || how.readWhole === true;
     this.inputNeeded = this.readsWhole ? span.sampleCount : Math.min(span.sampleCount, (this.keep + this.skip + 2) * extractor.decimation + 64 * extractor.decimation);
     this.out = new Float32Array(2 * this.keep);
   }
@@ -154,8 +161,7 @@ export class Pass2Collector {
 
   /** The result, after `inputSamples` input samples were read. */
   finish(inputSamples: number): Pass2Result {
-    const { extractor, span, options } = this;
-    const maxSamples = options.maxSamples ?? PASS2_DEFAULTS.maxSamples;
+    const { extractor, span, options, maxSamples } = this;
     const fsOut = extractor.outputRateHz;
     const warnings: string[] = [];
     const complete = this.expected <= maxSamples;

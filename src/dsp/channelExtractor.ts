@@ -41,7 +41,7 @@ export interface ChannelExtractorOptions {
    * Run the mixer and the decimators' dot products in the SIMD kernels (chainKernels.ts; the
    * same values as the JavaScript loops). Default: on the SIMD path (chainKernelsByDefault).
    */
-  readonly kernels?: boolean;
+  readonly kernels?: boolean | undefined;
 }
 
 /** Defaults of ChannelExtractorOptions. */
