@@ -110,8 +110,8 @@ export interface FastFft {
   /**
    * `iq` where `loadWindowed` is fastest: itself when it lies in the engine's memory (or the
    * engine has none), else a copy in a staging buffer of the engine's, valid until the next
-   * `staged` call or allocation in that memory. One copy of a block, so that its frames are
-   * windowed without a copy each.
+   * `staged` call or allocation in that memory. One copy of a span of frames (framePower.ts
+   * stagedFrames, at most 64 Ki samples), so that its frames are windowed without a copy each.
    */
   staged(iq: Float32Array): Float32Array;
 }
@@ -226,7 +226,7 @@ export class PffftFft implements FastFft {
   private timeView: Float32Array;
   private spectrumView: Float32Array;
   private outputView: Float32Array;
-  /** Samples copied in for `staged`, grown to the largest block. */
+  /** Samples copied in for `staged`, grown to the largest span staged. */
   private stage: PffftFloats | null = null;
 
   /** Throws RangeError unless pffftSupports(size). */

@@ -26,8 +26,7 @@ export function accumulateFrames(
   const group = framesPerStage(window.length, hop);
   for (let f0 = 0; f0 < count; f0 += group) {
     const g = Math.min(group, count - f0);
-    const a = firstSample + f0 * hop;
-    const x = engine.staged(iq.subarray(2 * a, 2 * (a + (g - 1) * hop + window.length)));
+    const x = stagedFrames(engine, iq, firstSample + f0 * hop, g, hop, window.length);
     for (let f = 0; f < g; f++) {
       engine.loadWindowed(x, f * hop, window);
       engine.forward();
@@ -46,4 +45,12 @@ const STAGE_SAMPLES = 65_536;
  */
 export function framesPerStage(frameLength: number, hop: number): number {
   return Math.max(1, Math.floor((STAGE_SAMPLES - frameLength) / hop) + 1);
+}
+
+/**
+ * The span of `iq` holding `frames` frames of `frameLength` samples at `hop`, the first at complex
+ * sample `firstSample`, staged in the engine's memory (FastFft.staged): frame f at f·hop of it.
+ */
+export function stagedFrames(engine: FastFft, iq: Float32Array, firstSample: number, frames: number, hop: number, frameLength: number): Float32Array {
+  return engine.staged(iq.subarray(2 * firstSample, 2 * (firstSample + (frames - 1) * hop + frameLength)));
 }

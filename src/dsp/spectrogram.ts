@@ -12,7 +12,7 @@
  */
 import { fastFft, naturalBinIndex, naturalToSlots, slotsToNatural, type FastFft, type FloatStore, type FrameWindow } from "./fft.js";
 import { checkBlock, frameGrid, framesInBlock, type FrameGrid } from "./frameGrid.js";
-import { framesPerStage } from "./framePower.js";
+import { framesPerStage, stagedFrames } from "./framePower.js";
 import { windowCoefficients, windowPowerSum, type WindowName } from "./windows.js";
 
 /** Spectrogram rows. Row-major rowCount × fftLength, row 0 earliest, centred bin order, FS²/Hz. */
@@ -128,11 +128,10 @@ export class SpectrogramAccumulator {
     const group = framesPerStage(l, l);
     for (let k0 = firstFrame; k0 < last; k0 += group) {
       const k1 = Math.min(last, k0 + group);
-      const a = k0 * l - dataStart;
-      const x = engine.staged(iq.subarray(2 * a, 2 * (k1 * l - dataStart)));
+      const x = stagedFrames(engine, iq, k0 * l - dataStart, k1 - k0, l, l);
       for (let k = k0; k < k1; k++) {
         const row = Math.floor((k * rows) / frames);
-        engine.loadWindowed(x, k * l - dataStart - a, this.frameWindow);
+        engine.loadWindowed(x, (k - k0) * l, this.frameWindow);
         engine.forward();
         engine.addPowerFloat(this.powerSum, this.powerMax, row * l);
         this.framesPerRow[row] = (this.framesPerRow[row] as number) + 1;

@@ -23,7 +23,7 @@
  */
 import { fastFft, toCentredOrder, type FastFft, type FrameWindow } from "./fft.js";
 import { checkBlock, frameGrid, framesInBlock, type FrameGrid } from "./frameGrid.js";
-import { framesPerStage } from "./framePower.js";
+import { framesPerStage, stagedFrames } from "./framePower.js";
 import { enbwBins, windowCoefficients, type WindowName } from "./windows.js";
 
 /** Options of a SpectrumHoldAccumulator. Defaults: hop floor(L/2), window "hann". */
@@ -122,8 +122,7 @@ export class SpectrumHoldAccumulator {
     const group = framesPerStage(length, h);
     for (let f0 = 0; f0 < frameCount; f0 += group) {
       const g = Math.min(group, frameCount - f0);
-      const a = (firstFrame + f0) * h - dataStart;
-      const x = this.engine.staged(iq.subarray(2 * a, 2 * (a + (g - 1) * h + length)));
+      const x = stagedFrames(this.engine, iq, (firstFrame + f0) * h - dataStart, g, h, length);
       for (let f = 0; f < g; f++) {
         this.engine.loadWindowed(x, f * h, this.frameWindow);
         this.engine.forward();
