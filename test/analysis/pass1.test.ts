@@ -29,6 +29,16 @@ async function pass1(path: string, options: Pass1Options, startS?: number, durat
   return runPass1(source.meta, span, options);
 }
 
+/** Workers run the compiled worker script: the built modules (dist/, made by `npm test`), not the sources. */
+async function builtModules() {
+  const load = (rel: string): Promise<unknown> => import(new URL(`../../dist/${rel}`, import.meta.url).href);
+  return {
+    built: (await load("analysis/index.js")) as typeof import("../../src/analysis/index.js"),
+    builtPass2: (await load("analysis/pass2.js")) as typeof import("../../src/analysis/pass2.js"),
+    cap: (await load("capture/index.js")) as typeof import("../../src/capture/index.js"),
+  };
+}
+
 describe("runPass1(meta, span)", () => {
   const fs = 1e6;
   const n = 300_000;
@@ -74,10 +84,7 @@ describe("runPass1(meta, span)", () => {
   });
 
   it("gives the same result in two worker threads as in one (compiled build; merging of accumulator states)", async () => {
-    // Workers run the compiled worker script: import the built module, not the sources.
-    const builtModule = (rel: string): Promise<unknown> => import(new URL(`../../dist/${rel}`, import.meta.url).href);
-    const built = (await builtModule("analysis/index.js")) as typeof import("../../src/analysis/index.js");
-    const cap = (await builtModule("capture/index.js")) as typeof import("../../src/capture/index.js");
+    const { built, cap } = await builtModules();
     const rawPath = join(dir, "noise_1Msps.cf32");
     writeFileSync(rawPath, encodeSamples("cf32_le", capture(1_200_000, fs, -200_000, 0.1, 1e-4, 7)));
     const source = await cap.openCapture(rawPath, {});
@@ -101,10 +108,7 @@ describe("runPass1(meta, span)", () => {
   it("extracts a channel given before it in the same read: what a pass 2 of its own gives, to the bit, in one thread or two", async () => {
     // The reference is runPass2's own read through one continuous ChannelExtractor; pass 1's
     // blocks are extracted apart (ChannelExtractor.pushOwned) and put end to end.
-    const builtModule = (rel: string): Promise<unknown> => import(new URL(`../../dist/${rel}`, import.meta.url).href);
-    const built = (await builtModule("analysis/index.js")) as typeof import("../../src/analysis/index.js");
-    const builtPass2 = (await builtModule("analysis/pass2.js")) as typeof import("../../src/analysis/pass2.js");
-    const cap = (await builtModule("capture/index.js")) as typeof import("../../src/capture/index.js");
+    const { built, builtPass2, cap } = await builtModules();
     const rawPath = join(dir, "tone_channel_1Msps.cf32");
     writeFileSync(rawPath, encodeSamples("cf32_le", capture(1_100_000, fs, -200_300, 0.1, 1e-4, 9)));
     const source = await cap.openCapture(rawPath, {});
